@@ -1,0 +1,4 @@
+export * from './parameters';
+export * from './schemas';
+export * from './dates';
+export * from './coupling';

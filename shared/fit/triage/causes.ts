@@ -1,0 +1,126 @@
+/**
+ * Symptom → possible fit causes to check, for the fitter. Suggestions with sources, never a
+ * diagnosis. Table: Silberman, Webner, Collina & Shiple 2005, Clin J Sport Med 15(4):271–276 [V];
+ * Asplund & St Pierre 2004, Phys Sportsmed 32(4):23–30 [V]; rows with their own source say so.
+ */
+import { z } from 'zod';
+import type { SetupParameter } from '../setup/parameters';
+import { parseInput } from '../errors';
+import type { BodyRegion } from './regions';
+import { symptomSchema, type Symptom, type SymptomInput } from './schemas';
+
+export const FIT_CAUSES = {
+  'saddle-low': { text: 'Saddle may be too low', parameters: ['saddleHeight'] },
+  'saddle-high': { text: 'Saddle may be too high', parameters: ['saddleHeight'] },
+  'saddle-forward': { text: 'Saddle may be too far forward', parameters: ['saddleSetback'] },
+  'saddle-back': { text: 'Saddle may be too far back', parameters: ['saddleSetback'] },
+  'saddle-angle': { text: 'Saddle tilt may be off', parameters: ['saddleTilt'] },
+  'saddle-nose-down': { text: 'Saddle nose may point down too much', parameters: ['saddleTilt'] },
+  'saddle-pressure': { text: 'Saddle pressure and tilt may need attention', parameters: ['saddleTilt'] },
+  'big-gears': { text: 'Pushing big gears at low cadence', parameters: [] },
+  'long-cranks': { text: 'Cranks may be too long', parameters: ['crankLength'] },
+  'excess-float': { text: 'Pedal float may be too loose', parameters: ['cleatRotation'] },
+  'toes-out': { text: 'Toes may point out (cleat rotation)', parameters: ['cleatRotation'] },
+  'toes-in': { text: 'Toes may point in (cleat rotation)', parameters: ['cleatRotation'] },
+  'leg-length-difference': { text: 'A leg-length difference may need a shim', parameters: ['stack'] },
+  'hip-rocking': { text: 'Hips may rock on the saddle', parameters: ['saddleHeight'] },
+  'reach-long': { text: 'Reach to the bars may be too long', parameters: ['reach', 'stemLength'] },
+  'reach-short': { text: 'Reach to the bars may be too short', parameters: ['reach', 'stemLength'] },
+  'bars-low': { text: 'Bars may be too low', parameters: ['drop', 'spacerStack'] },
+  'stem-long': { text: 'Stem may be too long', parameters: ['stemLength'] },
+  'tight-shoes': { text: 'Shoes may be too tight', parameters: [] },
+  'cleat-forward': { text: 'Cleat may be too far forward', parameters: ['cleatForeAft'] },
+  ankling: { text: 'Ankling (heavy toe-down pedalling)', parameters: [] },
+} as const satisfies Record<string, { text: string; parameters: readonly SetupParameter[] }>;
+export type FitCause = keyof typeof FIT_CAUSES;
+
+interface CauseRow {
+  label: string;
+  causes: readonly FitCause[];
+  source: string;
+  /** Kinds of pain that fit this row especially well (scored higher). */
+  kinds?: readonly Symptom['kind'][];
+}
+
+const SILBERMAN = 'Silberman et al. 2005, Clin J Sport Med 15(4):271–276 [V]';
+
+/** TRADE §5: each symptom row with the causes its sources cite. */
+export const CAUSE_TABLE = {
+  'anterior-knee': { label: 'front of knee', causes: ['saddle-low', 'saddle-forward', 'big-gears', 'long-cranks'], source: SILBERMAN },
+  'posterior-knee': { label: 'back of knee', causes: ['saddle-high', 'saddle-back', 'excess-float'], source: SILBERMAN },
+  'medial-knee': { label: 'inner knee', causes: ['toes-out', 'excess-float'], source: SILBERMAN },
+  'lateral-knee': { label: 'outer knee (ITB)', causes: ['toes-in', 'saddle-high', 'leg-length-difference'], source: SILBERMAN },
+  'hip-rocking': { label: 'hip (check for hip rocking)', causes: ['saddle-high', 'leg-length-difference'], source: SILBERMAN },
+  'low-back': { label: 'lower back', causes: ['reach-long', 'bars-low', 'reach-short', 'hip-rocking', 'saddle-angle'], source: `${SILBERMAN}; Asplund & St Pierre 2004 [V]; saddle tilt: Salai et al. 1999, Br J Sports Med 33(6):398–400 [V]` },
+  'neck-shoulders': { label: 'neck and shoulders', causes: ['reach-long', 'bars-low', 'saddle-nose-down'], source: SILBERMAN },
+  'hand-numbness': { label: 'hands', causes: ['bars-low', 'saddle-forward', 'saddle-nose-down', 'stem-long'], source: `${SILBERMAN}; Patterson et al. 2003, Am J Sports Med 31(4) [V]`, kinds: ['numb', 'tingling'] },
+  'hot-foot': { label: 'foot (hot foot)', causes: ['tight-shoes', 'cleat-forward'], source: SILBERMAN, kinds: ['burning', 'numb', 'tingling'] },
+  'perineal-numbness': { label: 'saddle area', causes: ['saddle-pressure'], source: 'Lowe et al. 2004, Med Sci Sports Exerc 36(6) [V]', kinds: ['numb', 'tingling'] },
+  achilles: { label: 'Achilles', causes: ['saddle-high', 'cleat-forward', 'ankling'], source: 'Silberman et al. 2005, as quoted [V2]' },
+} as const satisfies Record<string, CauseRow>;
+export type CauseRowId = keyof typeof CAUSE_TABLE;
+
+/** Which table row a body region reads from; regions without a sourced row have none. */
+export function causeRowFor(region: BodyRegion): CauseRowId | null {
+  if (region.startsWith('knee-front')) return 'anterior-knee';
+  if (region.startsWith('knee-back')) return 'posterior-knee';
+  if (region.startsWith('knee-inner')) return 'medial-knee';
+  if (region.startsWith('knee-outer')) return 'lateral-knee';
+  if (region.startsWith('hip-')) return 'hip-rocking';
+  if (region === 'lower-back') return 'low-back';
+  if (region === 'neck' || region.startsWith('shoulder-')) return 'neck-shoulders';
+  if (region.startsWith('hand-')) return 'hand-numbness';
+  if (region.startsWith('foot-')) return 'hot-foot';
+  if (region === 'perineum') return 'perineal-numbness';
+  if (region.startsWith('achilles-')) return 'achilles';
+  return null;
+}
+
+/** Extra score when the kind of pain is typical of the row (e.g. numbness in the hands). */
+const KIND_MATCH_BONUS = 2;
+
+export interface RankedCause {
+  cause: FitCause;
+  /** "Possible fit cause to check": plain words for the fitter. */
+  text: string;
+  parameters: readonly SetupParameter[];
+  score: number;
+  regions: BodyRegion[];
+  rows: CauseRowId[];
+  sources: string[];
+}
+
+/**
+ * Possible fit causes to check, ranked, for the fitter. Each symptom adds its pain score (at
+ * least 1, so a painless numbness still counts) plus a bonus when the kind of pain is typical of
+ * the row, to every cause its row cites; causes cited by several symptoms rise. Ties keep the
+ * catalogue order. Never a diagnosis.
+ */
+export function rankFitCauses(symptoms: SymptomInput[]): RankedCause[] {
+  const list = parseInput(z.array(symptomSchema).max(60), symptoms, 'symptoms');
+  const byCause = new Map<FitCause, RankedCause>();
+  for (const s of list) {
+    const rowId = causeRowFor(s.region);
+    if (!rowId) continue;
+    const row: CauseRow = CAUSE_TABLE[rowId];
+    const weight = Math.max(1, s.pain) + (row.kinds?.includes(s.kind) ? KIND_MATCH_BONUS : 0);
+    for (const cause of row.causes) {
+      const entry = byCause.get(cause) ?? {
+        cause,
+        text: FIT_CAUSES[cause].text,
+        parameters: FIT_CAUSES[cause].parameters,
+        score: 0,
+        regions: [],
+        rows: [],
+        sources: [],
+      };
+      entry.score += weight;
+      if (!entry.regions.includes(s.region)) entry.regions.push(s.region);
+      if (!entry.rows.includes(rowId)) entry.rows.push(rowId);
+      if (!entry.sources.includes(row.source)) entry.sources.push(row.source);
+      byCause.set(cause, entry);
+    }
+  }
+  const order = Object.keys(FIT_CAUSES);
+  return [...byCause.values()].sort((a, b) => b.score - a.score || order.indexOf(a.cause) - order.indexOf(b.cause));
+}
