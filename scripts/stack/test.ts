@@ -1,0 +1,80 @@
+/**
+ * `npm test` after the pre-step: a throw-away MariaDB and fakes on free ports, the client
+ * build, one real server for the browser tests, then every vitest project. Exits non-zero on
+ * any failure and removes everything it made.
+ */
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { spawn } from 'node:child_process';
+import { fileURLToPath } from 'node:url';
+import { startLocalServices } from './services';
+import { buildClientIfStale } from './client-build';
+import { freePort } from './net';
+
+const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
+const log = (line: string) => console.log(`[saddlestep:test] ${line}`);
+const vitestArgs = process.argv.slice(2);
+const tmp = fs.mkdtempSync(path.join(os.tmpdir(), 'saddlestep-test-'));
+const started = Date.now();
+
+let cleanup: (() => Promise<void>) | null = null;
+const finish = async (code: number) => {
+  await cleanup?.().catch((error: unknown) => console.error(error));
+  fs.rmSync(tmp, { recursive: true, force: true });
+  log(`Finished in ${((Date.now() - started) / 1000).toFixed(1)} s.`);
+  process.exit(code);
+};
+process.once('SIGINT', () => void finish(130));
+process.once('SIGTERM', () => void finish(143));
+
+try {
+  const ports = { database: await freePort(), smtp: await freePort(), mailWeb: await freePort(), stripe: await freePort() };
+  // The operator's DATABASE_URL and keys are ignored on purpose: tests never touch real data.
+  const services = await startLocalServices({ dataDir: tmp, ports, databaseName: 'saddlestep_test', given: {}, log });
+  cleanup = services.stop;
+
+  await buildClientIfStale(root, log);
+
+  const testEnv: Record<string, string> = {
+    ...services.env,
+    NODE_ENV: 'test',
+    LOG_LEVEL: 'silent',
+    BCRYPT_COST: '10',
+    UPLOAD_DIR: path.join(tmp, 'uploads'),
+    CLIENT_DIST: path.join(root, 'dist'),
+    AUTH_RATE_LIMIT: '10000',
+  };
+  Object.assign(process.env, testEnv, { PORT: '0' });
+
+  // One real server for the browser tests (API tests build their own app per file).
+  const { loadConfig } = await import('../../server/config');
+  const { startServer } = await import('../../server/index');
+  const { seedDemo } = await import('../../server/seed/demo');
+  const { createPasswordHasher } = await import('../../server/services/passwords');
+  const config = loadConfig();
+  const server = await startServer(config);
+  await seedDemo(createPasswordHasher(config.BCRYPT_COST));
+  const stopServices = cleanup;
+  cleanup = async () => {
+    await server.close();
+    await stopServices();
+  };
+  log(`Test server on http://127.0.0.1:${server.port}; database saddlestep_test on port ${ports.database}.`);
+
+  const withCoverage = vitestArgs.length === 0;
+  const vitest = spawn(
+    process.execPath,
+    [path.join(root, 'node_modules/vitest/vitest.mjs'), 'run', ...(withCoverage ? ['--coverage'] : []), ...vitestArgs],
+    {
+      cwd: root,
+      stdio: 'inherit',
+      env: { ...process.env, ...testEnv, CLIENT_DIST: '', SADDLESTEP_TEST_URL: `http://127.0.0.1:${server.port}`, SADDLESTEP_TEST_TMP: tmp },
+    },
+  );
+  const code = await new Promise<number>((resolve) => vitest.on('exit', (c, signal) => resolve(c ?? (signal ? 1 : 0))));
+  await finish(code);
+} catch (error) {
+  console.error(`[saddlestep:test] Set-up failed: ${error instanceof Error ? (error.stack ?? error.message) : String(error)}`);
+  await finish(1);
+}

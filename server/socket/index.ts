@@ -1,0 +1,61 @@
+import type { Server as HttpServer, IncomingMessage, ServerResponse } from 'node:http';
+import { Server } from 'socket.io';
+import type { RequestHandler } from 'express';
+import type { AppPassport } from '../auth/passport';
+import type { Logger } from '../logger';
+import { userRoom } from './rooms';
+
+interface SocketDeps {
+  sessionMiddleware: RequestHandler;
+  passport: AppPassport;
+  logger: Logger;
+}
+
+type EngineMiddleware = (req: IncomingMessage & { _query?: Record<string, string> }, res: ServerResponse, next: (error?: unknown) => void) => void;
+
+/** Run an Express middleware only on the handshake request, not on every polling request. */
+function onlyForHandshake(middleware: RequestHandler): EngineMiddleware {
+  return (req, res, next) => {
+    const isHandshake = req._query?.sid === undefined;
+    if (!isHandshake) return next();
+    (middleware as unknown as EngineMiddleware)(req, res, next);
+  };
+}
+
+/**
+ * socket.io on the app's own HTTP server, sharing the signed-in session. Anonymous sockets are
+ * refused before any event handler runs. Each user joins a private room for personal notices;
+ * consultation rooms arrive with the live consultation.
+ */
+export function createSocketServer(httpServer: HttpServer, { sessionMiddleware, passport, logger }: SocketDeps): Server {
+  const io = new Server(httpServer, {
+    serveClient: false,
+    maxHttpBufferSize: 1e6,
+    connectionStateRecovery: undefined,
+    // Same origin only: the client is served by this very server.
+    cors: undefined,
+  });
+
+  io.engine.use(onlyForHandshake(sessionMiddleware));
+  io.engine.use(onlyForHandshake(passport.initialize() as unknown as RequestHandler));
+  io.engine.use(onlyForHandshake(passport.session() as unknown as RequestHandler));
+
+  io.use((socket, next) => {
+    const user = (socket.request as IncomingMessage & { user?: Express.User }).user;
+    if (!user || user.status !== 'active') {
+      const error = new Error('not_signed_in') as Error & { data?: unknown };
+      error.data = { status: 401, message: 'Please sign in to continue.' };
+      return next(error);
+    }
+    socket.data.userId = user.id;
+    socket.data.role = user.role;
+    next();
+  });
+
+  io.on('connection', (socket) => {
+    void socket.join(userRoom(socket.data.userId as number));
+    logger.debug({ userId: socket.data.userId }, 'socket connected');
+  });
+
+  return io;
+}

@@ -1,0 +1,3 @@
+export * from './roles';
+export * from './schemas';
+export * from './time-zones';
