@@ -11,6 +11,6 @@ export function createSequelize(config: Pick<Config, 'DATABASE_URL' | 'DATABASE_
     define: { underscored: true },
     // Store and read instants as UTC; every time zone conversion happens in code.
     timezone: '+00:00',
-    dialectOptions: { connectTimeout: 10_000, timezone: 'Etc/GMT0' },
+    dialectOptions: { connectTimeout: 10_000 },
   });
 }

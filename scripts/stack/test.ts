@@ -34,7 +34,9 @@ try {
   const services = await startLocalServices({ dataDir: tmp, ports, databaseName: 'saddlestep_test', given: {}, log });
   cleanup = services.stop;
 
-  await buildClientIfStale(root, log);
+  // Only the browser tests need the built client; a filtered run of other tests skips the build.
+  const needsClient = vitestArgs.length === 0 || vitestArgs.some((arg) => arg.includes('browser'));
+  if (needsClient) await buildClientIfStale(root, log);
 
   const testEnv: Record<string, string> = {
     ...services.env,
