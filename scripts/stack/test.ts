@@ -28,7 +28,27 @@ const finish = async (code: number) => {
 process.once('SIGINT', () => void finish(130));
 process.once('SIGTERM', () => void finish(143));
 
+/** Run a project tool (lint, type check) and resolve with its exit code; output goes to the console. */
+function runTool(label: string, bin: string, args: string[]): Promise<number> {
+  return new Promise((resolve) => {
+    const child = spawn(process.execPath, [path.join(root, 'node_modules', bin), ...args], { cwd: root, stdio: ['ignore', 'pipe', 'pipe'] });
+    let output = '';
+    child.stdout.on('data', (chunk) => (output += chunk));
+    child.stderr.on('data', (chunk) => (output += chunk));
+    child.on('exit', (code) => {
+      log(`${label}: ${code === 0 ? 'passed' : 'FAILED'}`);
+      if (code !== 0) console.log(output);
+      resolve(code ?? 1);
+    });
+  });
+}
+
 try {
+  // Lint (which guards shared/ against Node, DOM and framework imports) and type checks run
+  // beside the set-up on a full run; a filtered run skips them.
+  const staticChecks = vitestArgs.length === 0
+    ? Promise.all([runTool('eslint', 'eslint/bin/eslint.js', ['.']), runTool('vue-tsc', 'vue-tsc/bin/vue-tsc.js', ['--noEmit', '-p', 'tsconfig.json'])])
+    : Promise.resolve([0]);
   const ports = { database: await freePort(), smtp: await freePort(), mailWeb: await freePort(), stripe: await freePort() };
   // The operator's DATABASE_URL and keys are ignored on purpose: tests never touch real data.
   const services = await startLocalServices({ dataDir: tmp, ports, databaseName: 'saddlestep_test', given: {}, log });
@@ -75,7 +95,8 @@ try {
     },
   );
   const code = await new Promise<number>((resolve) => vitest.on('exit', (c, signal) => resolve(c ?? (signal ? 1 : 0))));
-  await finish(code);
+  const checks = await staticChecks;
+  await finish(code !== 0 ? code : checks.some((c) => c !== 0) ? 1 : 0);
 } catch (error) {
   console.error(`[saddlestep:test] Set-up failed: ${error instanceof Error ? (error.stack ?? error.message) : String(error)}`);
   await finish(1);
