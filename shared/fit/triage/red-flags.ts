@@ -15,7 +15,7 @@
 import { z } from 'zod';
 import { parseInput } from '../errors';
 import { isKneeRegion } from './regions';
-import { REFERRAL_LEVELS, symptomSchema, type ReferralLevel, type Symptom, type SymptomInput } from './schemas';
+import { REFERRAL_LEVELS, symptomSchema, type ReferralLevel, type Symptom } from './schemas';
 
 const NICE = 'NICE NG59; BMJ Best Practice [V]';
 const TRADE_PHYSIO = 'TRADE §6 physio referral list [V]';

@@ -1,0 +1,8 @@
+/** The fit computation, shared by client and server. Import per area (e.g. `@shared/fit/planner`) or from here. */
+export * from './errors';
+export * from './setup';
+export * from './saddle-height';
+export * from './photo';
+export * from './planner';
+export * from './triage';
+export * from './checkin';
