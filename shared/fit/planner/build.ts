@@ -4,7 +4,7 @@ import { CRANK_SIZE_STEP_MM } from '../saddle-height/constants';
 import { couplingCompensation, saddleOffsetFromReference } from '../setup/coupling';
 import { addDays } from '../setup/dates';
 import { GROUP_LABELS, GROUP_PARAMETERS, SETUP_PARAMETERS, type ParameterGroup, type SetupParameter } from '../setup/parameters';
-import type { Setup } from '../setup/schemas';
+import { setupSchema, type Setup } from '../setup/schemas';
 import { DEFAULT_GROUP_ORDER, EPS, MAX_STEPS } from './constants';
 import { stepInstructions } from './instructions';
 import { effectiveLimits, type EffectiveLimits } from './limits';
@@ -122,6 +122,9 @@ function planGroup(ctx: Ctx, group: ParameterGroup, start: Setup): { current: Se
     }
     /* v8 ignore next 3 -- the last candidate has an empty window, so a step always fits there */
     if (!chosen) return { current, stop: blockedReason(ctx, group) };
+    if (!setupSchema.safeParse(chosen.next).success) {
+      return { current, stop: { code: 'out-of-range', message: `The next ${GROUP_LABELS[group]} step would take the setup outside plausible values; check the target.`, parameters: [...GROUP_PARAMETERS[group], 'saddleHeight'] } };
+    }
     ctx.steps.push(makeStep(ctx, group, current, chosen.next, chosen.date));
     current = chosen.next;
   }
