@@ -94,7 +94,7 @@ export interface RankedCause {
  * Possible fit causes to check, ranked, for the fitter. Each symptom adds its pain score (at
  * least 1, so a painless numbness still counts) plus a bonus when the kind of pain is typical of
  * the row, to every cause its row cites; causes cited by several symptoms rise. Ties keep the
- * catalogue order. Never a diagnosis.
+ * order in which the symptoms and the table list them. Never a diagnosis.
  */
 export function rankFitCauses(symptoms: SymptomInput[]): RankedCause[] {
   const list = parseInput(z.array(symptomSchema).max(60), symptoms, 'symptoms');
@@ -121,6 +121,6 @@ export function rankFitCauses(symptoms: SymptomInput[]): RankedCause[] {
       byCause.set(cause, entry);
     }
   }
-  const order = Object.keys(FIT_CAUSES);
-  return [...byCause.values()].sort((a, b) => b.score - a.score || order.indexOf(a.cause) - order.indexOf(b.cause));
+  // Array sort is stable: ties keep the order in which the symptoms and their sources list them.
+  return [...byCause.values()].sort((a, b) => b.score - a.score);
 }
