@@ -1,0 +1,40 @@
+import type { RouteRecordRaw } from 'vue-router';
+import type { Role } from '@shared/auth';
+
+declare module 'vue-router' {
+  interface RouteMeta {
+    /** Who may open the page; absent means everyone, signed in or not. */
+    roles?: readonly Role[];
+    /** Sign-in and register: a signed-in user is sent to their own home instead. */
+    guestOnly?: boolean;
+    /** The document title, before " · Saddlestep". */
+    title?: string;
+  }
+}
+
+/** Every route name, so links and redirects are checked by the compiler. */
+export const ROUTE = {
+  welcome: 'welcome',
+  signIn: 'sign-in',
+  register: 'register',
+  riderHome: 'rider-home',
+  fitterHome: 'fitter-home',
+  physioHome: 'physio-home',
+  adminHome: 'admin-home',
+  notFound: 'not-found',
+} as const;
+export type RouteName = (typeof ROUTE)[keyof typeof ROUTE];
+
+/** Query flag a home page turns into the "another kind of account" notice. */
+export const WRONG_ROLE_NOTICE = 'wrong-role';
+
+export const routes: RouteRecordRaw[] = [
+  { path: '/', name: ROUTE.welcome, component: () => import('@/views/WelcomeView.vue'), meta: { title: 'Bike fit, one small step at a time' } },
+  { path: '/sign-in', name: ROUTE.signIn, component: () => import('@/views/SignInView.vue'), meta: { guestOnly: true, title: 'Sign in' } },
+  { path: '/register', name: ROUTE.register, component: () => import('@/views/RegisterView.vue'), meta: { guestOnly: true, title: 'Create an account' } },
+  { path: '/rider', name: ROUTE.riderHome, component: () => import('@/views/RiderHomeView.vue'), meta: { roles: ['rider'], title: 'My fit' } },
+  { path: '/fitter', name: ROUTE.fitterHome, component: () => import('@/views/FitterHomeView.vue'), meta: { roles: ['fitter'], title: 'Today' } },
+  { path: '/physio', name: ROUTE.physioHome, component: () => import('@/views/PhysioHomeView.vue'), meta: { roles: ['physio'], title: 'Referrals' } },
+  { path: '/admin', name: ROUTE.adminHome, component: () => import('@/views/AdminHomeView.vue'), meta: { roles: ['admin'], title: 'Clinic' } },
+  { path: '/:pathMatch(.*)*', name: ROUTE.notFound, component: () => import('@/views/NotFoundView.vue'), meta: { title: 'Page not found' } },
+];
