@@ -18,6 +18,9 @@ import { createApiRouter } from './routes';
 import { authRateLimit, createCsrf, securityHeaders } from './middleware/security';
 import { createErrorHandler } from './middleware/error-handler';
 import { createSocketServer } from './socket';
+import { createMailer } from './mail/mailer';
+import { createStripe } from './payments/stripe-client';
+import type { AppContext } from './context';
 
 export const SESSION_COOKIE = 'saddlestep.sid';
 
@@ -27,6 +30,7 @@ export interface SaddlestepApp {
   io: SocketServer;
   sequelize: Sequelize;
   logger: Logger;
+  ctx: AppContext;
   /** Stop accepting work and release every connection and timer. */
   close: () => Promise<void>;
 }
@@ -65,6 +69,17 @@ export function createApp(config: Config, options: { logger?: Logger } = {}): Sa
     cookie: { httpOnly: true, sameSite: 'lax', secure: production, maxAge: config.SESSION_TTL_HOURS * 3600 * 1000 },
   });
 
+  const closeTasks: (() => Promise<void> | void)[] = [];
+  const ctx: AppContext = {
+    config,
+    logger,
+    sequelize,
+    mailer: createMailer(config, logger),
+    stripe: createStripe(config),
+    io: null,
+    onClose: (task) => closeTasks.push(task),
+  };
+
   const hasher = createPasswordHasher(config.BCRYPT_COST);
   const passport = createPassport(hasher);
   const csrf = createCsrf();
@@ -85,25 +100,28 @@ export function createApp(config: Config, options: { logger?: Logger } = {}): Sa
     res.json({ ok: true });
   };
   const auth = createAuthController({ passport, hasher, generateCsrfToken: csrf.generateToken });
-  app.use('/api', createApiRouter({ auth, authRateLimit: authRateLimit(config), health }));
+  app.use('/api', createApiRouter(ctx, { auth, authRateLimit: authRateLimit(config), health }));
 
   serveClient(app, config);
   app.use(createErrorHandler(logger));
 
   const httpServer = createServer(app);
   const io = createSocketServer(httpServer, { sessionMiddleware, passport, logger });
+  ctx.io = io;
 
   let closed = false;
   const close = async () => {
     if (closed) return;
     closed = true;
+    for (const task of closeTasks.reverse()) await task();
     await new Promise<void>((resolve) => io.close(() => resolve()));
     if (httpServer.listening) await new Promise<void>((resolve) => httpServer.close(() => resolve()));
     store.stopExpiringSessions();
+    ctx.mailer.close();
     await sequelize.close();
   };
 
-  return { app, httpServer, io, sequelize, logger, close };
+  return { app, httpServer, io, sequelize, logger, ctx, close };
 }
 
 /** The built client, with long caching for hashed assets and index.html for client routes. */

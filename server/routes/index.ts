@@ -6,6 +6,7 @@ import { apiNotFound } from '../middleware/error-handler';
 import type { createAuthController } from '../controllers/auth';
 import * as homes from '../controllers/homes';
 import * as adminAccounts from '../controllers/admin-accounts';
+import type { AppContext } from '../context';
 
 interface RouteDeps {
   auth: ReturnType<typeof createAuthController>;
@@ -17,7 +18,7 @@ interface RouteDeps {
  * Every API route, in one place. Each guarded route names its roles here, so a reader (and the
  * role-matrix test) can see the whole access policy at a glance.
  */
-export function createApiRouter({ auth, authRateLimit, health }: RouteDeps): Router {
+export function createApiRouter(ctx: AppContext, { auth, authRateLimit, health }: RouteDeps): Router {
   const api = Router();
 
   api.get('/health', health);
@@ -34,6 +35,9 @@ export function createApiRouter({ auth, authRateLimit, health }: RouteDeps): Rou
   api.get('/admin/home', requireRole('admin'), homes.adminHome);
   api.get('/admin/accounts/pending', requireRole('admin'), adminAccounts.listPending);
   api.post('/admin/accounts/:id/decision', requireRole('admin'), validateBody(accountDecisionSchema), adminAccounts.decide);
+
+  // Feature routers (one file each in server/routes/) are mounted here, before the 404.
+  void ctx;
 
   api.use(apiNotFound);
   return api;
