@@ -64,8 +64,10 @@ function apply(ctx: Ctx, current: Setup, moves: Moves): Setup {
   const next = { ...current };
   for (const [p, m] of Object.entries(moves) as [SetupParameter, number][]) next[p] = current[p] + m;
   next.saddleHeight = current.saddleHeight + (moves.saddleHeight ?? 0) + couplingCompensation(ctx.input.baseline, current, next);
-  // Snap values that reached their goal, so a finished plan ends exactly at the target.
-  for (const p of SETUP_PARAMETERS) if (Math.abs(next[p] - ctx.goal[p]) < EPS) next[p] = ctx.goal[p];
+  // Snap the values this step moved that reached their goal, so a finished plan ends exactly at the target.
+  for (const p of [...Object.keys(moves), 'saddleHeight'] as SetupParameter[]) {
+    if (next[p] !== current[p] && Math.abs(next[p] - ctx.goal[p]) < EPS) next[p] = ctx.goal[p];
+  }
   return next;
 }
 
@@ -243,7 +245,8 @@ export function buildPlanFrom(input: PlanInputParsed): Plan {
     }
     if (order.every((g) => groupDone(ctx, g, current)) || reasons.some((r) => r.code === 'step-limit')) break;
   }
-  const reaches = SETUP_PARAMETERS.every((p) => current[p] === input.target[p]);
+  // "Exactly" means within EPS (1e-6 mm or degree), far below anything a rider can set.
+  const reaches = SETUP_PARAMETERS.every((p) => Math.abs(current[p] - input.target[p]) <= EPS);
   return {
     status: reaches ? 'reaches-target' : 'stopped-at-bound',
     baseline: input.baseline,
