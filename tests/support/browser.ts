@@ -1,6 +1,3 @@
-import fs from 'node:fs';
-import os from 'node:os';
-import path from 'node:path';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
 
 /** Flags that keep Debian's Chromium quiet on a machine with no outside network. */
@@ -26,17 +23,10 @@ export interface BrowserSession {
   close: () => Promise<void>;
 }
 
-/** The system Chromium with a fresh profile folder, removed again on close. */
+/** The system Chromium; playwright gives each launch a fresh, temporary profile of its own. */
 export async function launchBrowser(): Promise<BrowserSession> {
-  const profile = fs.mkdtempSync(path.join(process.env.SADDLESTEP_TEST_TMP ?? os.tmpdir(), 'chromium-'));
-  const browser = await chromium.launch({ executablePath: '/usr/bin/chromium', args: [...CHROMIUM_ARGS, `--user-data-dir=${profile}`] });
-  return {
-    browser,
-    close: async () => {
-      await browser.close();
-      fs.rmSync(profile, { recursive: true, force: true });
-    },
-  };
+  const browser = await chromium.launch({ executablePath: '/usr/bin/chromium', args: CHROMIUM_ARGS });
+  return { browser, close: () => browser.close() };
 }
 
 /** A new tab (own cookies) that records every request URL it makes. */
