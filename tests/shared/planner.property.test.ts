@@ -52,7 +52,7 @@ const inputArb: fc.Arbitrary<PlanInput> = setupArb.chain((baseline) =>
     ),
     physio: fc.option(
       fc.record({
-        hold: fc.boolean({ weight: 10 } as never) as fc.Arbitrary<boolean>,
+        hold: fc.boolean(),
         excludedParameters: fc.subarray([...SETUP_PARAMETERS], { maxLength: 3 }),
         excludedGroups: fc.subarray([...PARAMETER_GROUPS], { maxLength: 1 }),
         stepCaps: fc.record({ saddleHeight: fc.double({ min: 0.5, max: 6, noNaN: true }), cleatForeAft: fc.double({ min: 0.5, max: 3, noNaN: true }) }, { requiredKeys: [] }),
