@@ -72,7 +72,7 @@ describe('buildPlan', () => {
     expect(deltas(plan, 'crankLength')).toEqual([-2.5, -2.5, -2.5]);
     expect(deltas(plan, 'saddleHeight')).toEqual([2.5, 2.5, 2.5]);
     expect(plan.steps[0]?.changes.find((c) => c.parameter === 'saddleHeight')?.coupledTo).toBe('cranks');
-    expect(plan.steps[0]?.instructions.join(' ')).toMatch(/Fit shorter cranks, shorter by 2.5 mm/);
+    expect(plan.steps[0]?.instructions.join(' ')).toMatch(/Fit cranks 2.5 mm shorter: .*Raise the saddle 2.5 mm to keep the same leg reach with the new cranks/);
   });
 
   it('carries the cleat rule: back 10 mm lowers the saddle 5 mm in all ([V2])', () => {

@@ -10,19 +10,28 @@ function amount(v: number, unit: 'mm' | 'deg'): string {
   return unit === 'mm' ? `${n} mm` : `${n}°`;
 }
 
-const VERBS: Record<SetupParameter, [up: string, down: string]> = {
-  saddleHeight: ['Raise the saddle', 'Lower the saddle'],
-  saddleSetback: ['Slide the saddle back on its rails', 'Slide the saddle forward on its rails'],
-  saddleTilt: ['Tilt the saddle nose up', 'Tilt the saddle nose down'],
-  reach: ['Lengthen the saddle-to-bar reach', 'Shorten the saddle-to-bar reach'],
-  drop: ['Lower the bars (more drop)', 'Raise the bars (less drop)'],
-  stemLength: ['Fit a longer stem, longer by', 'Fit a shorter stem, shorter by'],
-  spacerStack: ['Add spacers under the stem:', 'Move spacers from under the stem to above it:'],
-  crankLength: ['Fit longer cranks, longer by', 'Fit shorter cranks, shorter by'],
-  stack: ['Raise the shoe and pedal stack (for example a shim under the cleat) by', 'Lower the shoe and pedal stack by'],
-  cleatForeAft: ['Move the cleat toward the toe', 'Move the cleat toward the heel'],
-  cleatRotation: ['Turn the cleat so the toes point further out by', 'Turn the cleat so the toes point further in by'],
+type Say = (amount: string) => string;
+
+/** What to do, for a move up (+) and down (−) of each parameter. */
+const VERBS: Record<SetupParameter, [up: Say, down: Say]> = {
+  saddleHeight: [(a) => `Raise the saddle ${a}`, (a) => `Lower the saddle ${a}`],
+  saddleSetback: [(a) => `Slide the saddle back ${a} on its rails`, (a) => `Slide the saddle forward ${a} on its rails`],
+  saddleTilt: [(a) => `Tilt the saddle nose up ${a}`, (a) => `Tilt the saddle nose down ${a}`],
+  reach: [(a) => `Lengthen the saddle-to-bar reach by ${a}`, (a) => `Shorten the saddle-to-bar reach by ${a}`],
+  drop: [(a) => `Lower the bars ${a} (more drop)`, (a) => `Raise the bars ${a} (less drop)`],
+  stemLength: [(a) => `Fit a stem ${a} longer`, (a) => `Fit a stem ${a} shorter`],
+  spacerStack: [(a) => `Add ${a} of spacers under the stem`, (a) => `Move ${a} of spacers from under the stem to above it`],
+  crankLength: [(a) => `Fit cranks ${a} longer`, (a) => `Fit cranks ${a} shorter`],
+  stack: [(a) => `Raise the shoe and pedal stack by ${a} (for example a shim under the cleat)`, (a) => `Lower the shoe and pedal stack by ${a}`],
+  cleatForeAft: [(a) => `Move the cleat ${a} toward the toe`, (a) => `Move the cleat ${a} toward the heel`],
+  cleatRotation: [(a) => `Turn the cleat so the toes point ${a} further out`, (a) => `Turn the cleat so the toes point ${a} further in`],
 };
+
+/** A reading as the rider will see it on the tape or level, with its sign. */
+function reading(v: number, unit: 'mm' | 'deg'): string {
+  const text = amount(v, unit);
+  return Math.round(v * 10) < 0 ? `−${text}` : text;
+}
 
 const COUPLING_WHY: Record<ParameterGroup, string> = {
   cranks: 'to keep the same leg reach with the new cranks',
@@ -38,13 +47,13 @@ export function stepInstructions(changes: PlanChange[], before: Setup, after: Se
   const lines: string[] = [
     'Before you start, mark the seat post and note the current settings so you can always go back.',
   ];
-  for (const c of changes) {
+  // The main change first, then the saddle compensation it carries.
+  const ordered = [...changes.filter((c) => !c.coupledTo), ...changes.filter((c) => c.coupledTo)];
+  for (const c of ordered) {
     const info = PARAMETER_INFO[c.parameter];
     const [up, down] = VERBS[c.parameter];
     const why = c.coupledTo ? ` ${COUPLING_WHY[c.coupledTo]}` : '';
-    lines.push(
-      `${c.delta > 0 ? up : down} ${amount(c.delta, info.unit)}${why}: ${info.measure}. It should read ${amount(c.to, info.unit).replace(/^/, c.to < 0 ? '−' : '')}.`,
-    );
+    lines.push(`${(c.delta > 0 ? up : down)(amount(c.delta, info.unit))}${why}: ${info.measure}. It should read ${reading(c.to, info.unit)}.`);
     if (c.parameter === 'saddleHeight' && seatTubeAngle !== undefined && after.saddleSetback === before.saddleSetback) {
       const slide = seatPostMove(c.delta, seatTubeAngle).setback;
       if (Math.abs(slide) >= 0.5) {

@@ -1,4 +1,5 @@
 /** Clinic policy against the hard safety bounds: check for the admin screen, clamp for the planner. */
+import { z } from 'zod';
 import { parseInput } from '../errors';
 import { SETUP_PARAMETERS } from '../setup/parameters';
 import {
@@ -11,14 +12,16 @@ import {
 } from './constants';
 import { policySchema, type Policy, type PolicyInput } from './schemas';
 
-export interface PolicyIssue {
+/** A policy value outside its hard bound, as the admin screen shows it. */
+export const policyIssueSchema = z.object({
   /** Dotted path, e.g. `stepCaps.saddleHeight`. */
-  field: string;
-  value: number;
-  min: number;
-  max: number;
-  message: string;
-}
+  field: z.string(),
+  value: z.number(),
+  min: z.number(),
+  max: z.number(),
+  message: z.string(),
+});
+export type PolicyIssue = z.infer<typeof policyIssueSchema>;
 
 /** Every hard bound as a flat list of [field, bounds, getter]. */
 function bounded(p: Policy): { field: string; value: number; bounds: readonly [number, number] }[] {

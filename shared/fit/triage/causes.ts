@@ -7,7 +7,8 @@ import { z } from 'zod';
 import type { SetupParameter } from '../setup/parameters';
 import { parseInput } from '../errors';
 import type { BodyRegion } from './regions';
-import { symptomSchema, type Symptom, type SymptomInput } from './schemas';
+import { bodyRegionSchema, symptomSchema, type Symptom, type SymptomInput } from './schemas';
+import { setupParameterSchema } from '../setup/schemas';
 
 export const FIT_CAUSES = {
   'saddle-low': { text: 'Saddle may be too low', parameters: ['saddleHeight'] },
@@ -79,16 +80,18 @@ export function causeRowFor(region: BodyRegion): CauseRowId | null {
 /** Extra score when the kind of pain is typical of the row (e.g. numbness in the hands). */
 const KIND_MATCH_BONUS = 2;
 
-export interface RankedCause {
-  cause: FitCause;
+/** One ranked possible fit cause, as sent to the fitter's screen. */
+export const rankedCauseSchema = z.object({
+  cause: z.enum(Object.keys(FIT_CAUSES) as [FitCause, ...FitCause[]]),
   /** "Possible fit cause to check": plain words for the fitter. */
-  text: string;
-  parameters: readonly SetupParameter[];
-  score: number;
-  regions: BodyRegion[];
-  rows: CauseRowId[];
-  sources: string[];
-}
+  text: z.string(),
+  parameters: z.array(setupParameterSchema),
+  score: z.number(),
+  regions: z.array(bodyRegionSchema),
+  rows: z.array(z.enum(Object.keys(CAUSE_TABLE) as [CauseRowId, ...CauseRowId[]])),
+  sources: z.array(z.string()),
+});
+export type RankedCause = z.infer<typeof rankedCauseSchema>;
 
 /**
  * Possible fit causes to check, ranked, for the fitter. Each symptom adds its pain score (at
@@ -108,7 +111,7 @@ export function rankFitCauses(symptoms: SymptomInput[]): RankedCause[] {
       const entry = byCause.get(cause) ?? {
         cause,
         text: FIT_CAUSES[cause].text,
-        parameters: FIT_CAUSES[cause].parameters,
+        parameters: [...FIT_CAUSES[cause].parameters],
         score: 0,
         regions: [],
         rows: [],
