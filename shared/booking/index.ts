@@ -1,0 +1,4 @@
+export * from './availability';
+export * from './money';
+export * from './refund-policy';
+export * from './slots';

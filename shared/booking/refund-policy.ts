@@ -1,0 +1,53 @@
+import { z } from 'zod';
+
+/**
+ * The clinic's cancellation rules. The defaults are invented for the demo studio (common practice
+ * in appointment businesses, no published source): full refund up to 24 h before the start, half
+ * after that, and a full refund whenever the fitter or clinic cancels.
+ */
+export const cancellationPolicySchema = z.strictObject({
+  /** Hours before the start up to which a rider gets the early share back and may reschedule. */
+  windowHours: z.number().int().min(0).max(24 * 14).default(24),
+  /** Share refunded when the rider cancels before the window (0–1). */
+  earlyRefundShare: z.number().min(0).max(1).default(1),
+  /** Share refunded when the rider cancels inside the window, before the start (0–1). */
+  lateRefundShare: z.number().min(0).max(1).default(0.5),
+});
+export type CancellationPolicy = z.infer<typeof cancellationPolicySchema>;
+export const DEFAULT_CANCELLATION_POLICY: CancellationPolicy = cancellationPolicySchema.parse({});
+
+export type CancelledBy = 'rider' | 'fitter' | 'admin';
+
+export interface RefundDecision {
+  /** Minor units to refund (never more than paid). */
+  amountMinor: number;
+  share: number;
+  /** A sentence for the rider and the e-mail. */
+  reason: string;
+  /** Whether the rider may still move the booking instead. */
+  mayReschedule: boolean;
+}
+
+/**
+ * How much of a paid fee goes back when a booking is cancelled at `now`.
+ * Shares are rounded down to whole minor units so a refund never exceeds the policy.
+ */
+export function decideRefund(input: { paidMinor: number; startsAt: Date; now: Date; cancelledBy: CancelledBy; policy: CancellationPolicy }): RefundDecision {
+  const { paidMinor, startsAt, now, cancelledBy, policy } = input;
+  const hoursBefore = (startsAt.getTime() - now.getTime()) / 3_600_000;
+  const mayReschedule = hoursBefore >= policy.windowHours;
+  if (cancelledBy !== 'rider') {
+    return { amountMinor: paidMinor, share: 1, reason: 'The studio cancelled, so the full fee is refunded.', mayReschedule };
+  }
+  if (hoursBefore <= 0) {
+    return { amountMinor: 0, share: 0, reason: 'The session time has passed, so no refund is due.', mayReschedule: false };
+  }
+  const early = hoursBefore >= policy.windowHours;
+  const share = early ? policy.earlyRefundShare : policy.lateRefundShare;
+  const amountMinor = Math.floor(paidMinor * share);
+  const percent = Math.round(share * 100);
+  const reason = early
+    ? `Cancelled more than ${policy.windowHours} h before the start: ${percent} % is refunded.`
+    : `Cancelled less than ${policy.windowHours} h before the start: ${percent} % is refunded.`;
+  return { amountMinor, share, reason, mayReschedule };
+}
