@@ -21,6 +21,7 @@ import { createSocketServer } from './socket';
 import { createMailer } from './mail/mailer';
 import { createStripe } from './payments/stripe-client';
 import type { AppContext } from './context';
+import { createStripeWebhookHandler } from './controllers/stripe-webhook';
 
 export const SESSION_COOKIE = 'saddlestep.sid';
 
@@ -89,6 +90,8 @@ export function createApp(config: Config, options: { logger?: Logger } = {}): Sa
   if (config.TRUST_PROXY) app.set('trust proxy', config.TRUST_PROXY);
   app.use(securityHeaders(config));
   app.use(pinoHttp({ logger, autoLogging: { ignore: (req) => !req.url?.startsWith('/api') } }));
+  // Stripe signs the exact bytes it sends, so its webhook reads the raw body before any JSON parsing.
+  app.post('/api/stripe/webhook', express.raw({ type: 'application/json', limit: '512kb' }), createStripeWebhookHandler(ctx));
   app.use(express.json({ limit: '100kb', strict: true }));
   app.use(sessionMiddleware);
   app.use(passport.initialize());
@@ -99,7 +102,7 @@ export function createApp(config: Config, options: { logger?: Logger } = {}): Sa
     await sequelize.authenticate();
     res.json({ ok: true });
   };
-  const auth = createAuthController({ passport, hasher, generateCsrfToken: csrf.generateToken });
+  const auth = createAuthController({ passport, hasher, generateCsrfToken: csrf.generateToken, ctx });
   app.use('/api', createApiRouter(ctx, { auth, authRateLimit: authRateLimit(config), health }));
 
   serveClient(app, config);

@@ -32,6 +32,8 @@ const envSchema = z.object({
   /** Sign-in and registration attempts allowed per client per window. */
   AUTH_RATE_LIMIT: z.coerce.number().int().min(1).default(20),
   AUTH_RATE_WINDOW_SECONDS: z.coerce.number().int().min(1).default(15 * 60),
+  /** How often the in-process scheduler looks for due jobs; 0 switches it off in this process. */
+  SCHEDULER_INTERVAL_SECONDS: z.coerce.number().int().min(0).max(3600).default(15),
   /** Where the built client lives; empty disables static serving (API-only tests). */
   CLIENT_DIST: z.string().default('dist'),
 });

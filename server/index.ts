@@ -1,11 +1,15 @@
 import { loadConfig } from './config';
 import { createApp } from './app';
 import { migrateUp } from './migrator';
+import { createAppScheduler } from './scheduler/app-scheduler';
 
 /** Production entry: migrate, then listen. The dev/test launchers call `startServer` directly. */
 export async function startServer(config = loadConfig()) {
   const saddlestep = createApp(config);
   await migrateUp(saddlestep.sequelize, saddlestep.logger);
+  const scheduler = createAppScheduler(saddlestep.ctx, { intervalMs: config.SCHEDULER_INTERVAL_SECONDS * 1000 });
+  saddlestep.ctx.onClose(() => scheduler.stop());
+  if (config.SCHEDULER_INTERVAL_SECONDS > 0) scheduler.start();
   await new Promise<void>((resolve, reject) => {
     saddlestep.httpServer.once('error', reject);
     saddlestep.httpServer.listen(config.PORT, config.HOST, () => resolve());

@@ -7,11 +7,14 @@ import { registerUser } from '../services/users';
 import type { PasswordHasher } from '../services/passwords';
 import { presentUser } from '../presenters/user';
 import type { User } from '../models';
+import type { AppContext } from '../context';
+import { sendWelcome } from '../mail/booking-mails';
 
 interface AuthControllerDeps {
   passport: AppPassport;
   hasher: PasswordHasher;
   generateCsrfToken: (req: Request, overwrite?: boolean) => string;
+  ctx: AppContext;
 }
 
 /** req.login regenerates the session id (passport ≥ 0.6), so a fixated id is useless. */
@@ -28,7 +31,7 @@ function authenticate(passport: AppPassport, req: Request, res: Response): Promi
   });
 }
 
-export function createAuthController({ passport, hasher, generateCsrfToken }: AuthControllerDeps) {
+export function createAuthController({ passport, hasher, generateCsrfToken, ctx }: AuthControllerDeps) {
   const csrf: RequestHandler = (req, res) => {
     res.json({ csrfToken: generateCsrfToken(req) });
   };
@@ -36,6 +39,8 @@ export function createAuthController({ passport, hasher, generateCsrfToken }: Au
   const register: RequestHandler = async (req, res) => {
     const input = req.body as RegisterInput;
     const user = await registerUser(input, hasher, actorFromRequest(req));
+    // A mail outage must not undo a registration; it is logged instead.
+    await sendWelcome(ctx, user).catch((error: unknown) => ctx.logger.error({ err: error }, 'welcome e-mail failed'));
     if (user.status !== 'active') {
       res.status(201).json({ user: presentUser(user), signedIn: false, message: 'Thanks. The clinic will review your account; we will e-mail you when you can sign in.' });
       return;

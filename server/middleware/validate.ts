@@ -17,6 +17,16 @@ function summarise(fields: Record<string, string>): string {
   return messages.length === 1 ? messages[0]! : `Please correct ${messages.length} fields: ${messages.join(' ')}`;
 }
 
+/** Parse anything (query strings, socket payloads) with a schema, or throw a 400 with per-field messages. */
+export function parseOrThrow<S extends z.ZodType>(schema: S, data: unknown): z.output<S> {
+  const parsed = schema.safeParse(data);
+  if (!parsed.success) {
+    const fields = fieldErrors(parsed.error);
+    throw badRequest(summarise(fields), fields);
+  }
+  return parsed.data;
+}
+
 /** Parse and replace req.body with the schema's output, or answer 400 with per-field messages. */
 export function validateBody<S extends z.ZodType>(schema: S): RequestHandler {
   return (req, _res, next) => {

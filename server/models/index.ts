@@ -4,8 +4,23 @@ import { Session } from './session';
 import { User } from './user';
 import { Consultation } from './consultation';
 import { ConsultationEvent } from './consultation-event';
+import { RiderProfile } from './rider-profile';
+import { Bike } from './bike';
+import { SetupSnapshot } from './setup-snapshot';
+import { Consent } from './consent';
+import { Intake } from './intake';
+import { Upload } from './upload';
 
-export { AuditEntry, Consultation, ConsultationEvent, Session, User };
+export { Bike, Consent, Intake, RiderProfile, SetupSnapshot, Upload };
+import { FitterProfile } from './fitter-profile';
+import { Payment } from './payment';
+import { PaymentCustomer } from './payment-customer';
+import { Refund } from './refund';
+import { StripeEvent } from './stripe-event';
+import { ScheduledJob } from './scheduled-job';
+import { ClinicSettings } from './clinic-settings';
+
+export { AuditEntry, ClinicSettings, Consultation, ConsultationEvent, FitterProfile, Payment, PaymentCustomer, Refund, ScheduledJob, Session, StripeEvent, User };
 
 /** Initialise every model and wire associations once. */
 export function initModels(sequelize: Sequelize) {
@@ -14,6 +29,19 @@ export function initModels(sequelize: Sequelize) {
   AuditEntry.initModel(sequelize);
   Consultation.initModel(sequelize);
   ConsultationEvent.initModel(sequelize);
+  RiderProfile.initModel(sequelize);
+  Bike.initModel(sequelize);
+  SetupSnapshot.initModel(sequelize);
+  Consent.initModel(sequelize);
+  Intake.initModel(sequelize);
+  Upload.initModel(sequelize);
+  FitterProfile.initModel(sequelize);
+  Payment.initModel(sequelize);
+  PaymentCustomer.initModel(sequelize);
+  Refund.initModel(sequelize);
+  StripeEvent.initModel(sequelize);
+  ScheduledJob.initModel(sequelize);
+  ClinicSettings.initModel(sequelize);
 
   Session.belongsTo(User, { foreignKey: 'userId', as: 'user' });
   AuditEntry.belongsTo(User, { foreignKey: 'actorId', as: 'actor', constraints: false });
@@ -21,6 +49,14 @@ export function initModels(sequelize: Sequelize) {
   Consultation.belongsTo(User, { foreignKey: 'riderId', as: 'rider' });
   Consultation.belongsTo(User, { foreignKey: 'fitterId', as: 'fitter' });
   Consultation.hasMany(ConsultationEvent, { foreignKey: 'consultationId', as: 'events' });
+  User.hasOne(RiderProfile, { foreignKey: 'userId', as: 'riderProfile' });
+  Bike.hasMany(SetupSnapshot, { foreignKey: 'bikeId', as: 'snapshots' });
+  Intake.belongsTo(Consent, { foreignKey: 'consentId', as: 'consent' });
+  Intake.hasMany(Upload, { foreignKey: 'intakeId', as: 'uploads' });
+  Consultation.hasMany(Payment, { foreignKey: 'consultationId', as: 'payments' });
+  Payment.hasMany(Refund, { foreignKey: 'paymentId', as: 'refunds' });
+  User.hasOne(FitterProfile, { foreignKey: 'userId', as: 'fitterProfile' });
+  FitterProfile.belongsTo(User, { foreignKey: 'userId', as: 'user' });
 
   return { User, Session, AuditEntry, Consultation, ConsultationEvent };
 }

@@ -7,6 +7,7 @@ import type { createAuthController } from '../controllers/auth';
 import * as homes from '../controllers/homes';
 import * as adminAccounts from '../controllers/admin-accounts';
 import type { AppContext } from '../context';
+import { createBookingRouter } from './booking';
 
 interface RouteDeps {
   auth: ReturnType<typeof createAuthController>;
@@ -37,7 +38,7 @@ export function createApiRouter(ctx: AppContext, { auth, authRateLimit, health }
   api.post('/admin/accounts/:id/decision', requireRole('admin'), validateBody(accountDecisionSchema), adminAccounts.decide);
 
   // Feature routers (one file each in server/routes/) are mounted here, before the 404.
-  void ctx;
+  api.use(createBookingRouter(ctx));
 
   api.use(apiNotFound);
   return api;

@@ -52,7 +52,7 @@ export const availabilitySchema = z.strictObject({
   /** How far ahead a rider must book. */
   minNoticeHours: z.number().int().min(0).max(24 * 14, 'Notice can be at most 14 days.'),
   /** How far ahead slots are offered. */
-  horizonDays: z.number().int().min(1).max(120).default(42),
+  horizonDays: z.number().int().min(1).max(366, 'Offer slots at most a year ahead.').default(42),
 });
 export type AvailabilityInput = z.input<typeof availabilitySchema>;
 export type Availability = z.output<typeof availabilitySchema>;

@@ -1,0 +1,89 @@
+import type { RequestHandler } from 'express';
+import type { z } from 'zod';
+import { Op } from 'sequelize';
+import type { cancelSchema, holdSlotSchema, paymentSchema, rescheduleSchema } from '@shared/booking';
+import { TEST_CARDS } from '@shared/booking';
+import { notFound } from '../errors';
+import { parseId } from '../middleware/validate';
+import { Consultation, Payment, User } from '../models';
+import { presentConsultation } from '../presenters/consultation';
+import type { AppContext } from '../context';
+import { cancellationTerms, findOwnConsultation, holdSlot, reschedule } from '../services/booking';
+import { payForConsultation } from '../services/payments';
+import { cancelConsultation } from '../services/refunds';
+import { actorFromRequest } from '../services/audit';
+import { sendBookingConfirmation } from '../mail/booking-mails';
+import { scheduleBookingReminder } from '../services/booking-jobs';
+
+function idFrom(raw: unknown): number {
+  const id = parseId(raw as string);
+  if (!id) throw notFound('That consultation');
+  return id;
+}
+
+async function present(c: Consultation) {
+  const [rider, fitter, payment] = await Promise.all([
+    User.findByPk(c.riderId),
+    User.findByPk(c.fitterId),
+    Payment.findOne({ where: { consultationId: c.id, status: { [Op.in]: ['succeeded', 'refunded', 'partially_refunded'] } } }),
+  ]);
+  return presentConsultation(c, { rider, fitter }, payment);
+}
+
+export function createConsultationController(ctx: AppContext) {
+  const hold: RequestHandler = async (req, res) => {
+    const input = req.body as z.output<typeof holdSlotSchema>;
+    const consultation = await holdSlot(ctx, req.user!, input, actorFromRequest(req));
+    res.status(201).json({ consultation: await present(consultation) });
+  };
+
+  const list: RequestHandler = async (req, res) => {
+    const user = req.user!;
+    const rows = await Consultation.findAll({
+      where: user.role === 'rider' ? { riderId: user.id } : { fitterId: user.id },
+      order: [['startsAt', 'DESC']],
+      limit: 100,
+    });
+    res.json({ consultations: await Promise.all(rows.map(present)) });
+  };
+
+  const show: RequestHandler = async (req, res) => {
+    const consultation = await findOwnConsultation(req.user!, idFrom(req.params.id));
+    res.json({ consultation: await present(consultation) });
+  };
+
+  const terms: RequestHandler = async (req, res) => {
+    const consultation = await findOwnConsultation(req.user!, idFrom(req.params.id));
+    const payment = await Payment.findOne({ where: { consultationId: consultation.id, status: { [Op.in]: ['succeeded', 'partially_refunded'] } } });
+    const cancelledBy = req.user!.role === 'rider' ? 'rider' : 'fitter';
+    res.json({ terms: payment ? await cancellationTerms(consultation, payment.amountMinor - payment.refundedMinor, cancelledBy) : null });
+  };
+
+  const pay: RequestHandler = async (req, res) => {
+    const input = req.body as z.output<typeof paymentSchema>;
+    const { consultation } = await payForConsultation(ctx, req.user!, idFrom(req.params.id), input, actorFromRequest(req));
+    res.json({ consultation: await present(consultation) });
+  };
+
+  const move: RequestHandler = async (req, res) => {
+    const { startsAt } = req.body as z.output<typeof rescheduleSchema>;
+    const consultation = await reschedule(ctx, req.user!, idFrom(req.params.id), startsAt, actorFromRequest(req));
+    await scheduleBookingReminder(consultation);
+    await sendBookingConfirmation(ctx, consultation, 'moved').catch((error: unknown) => ctx.logger.error({ err: error }, 'reschedule e-mail failed'));
+    res.json({ consultation: await present(consultation) });
+  };
+
+  const cancel: RequestHandler = async (req, res) => {
+    const { reason } = req.body as z.output<typeof cancelSchema>;
+    const result = await cancelConsultation(ctx, req.user!, idFrom(req.params.id), reason, actorFromRequest(req));
+    res.json({ consultation: await present(result.consultation), refundedMinor: result.refund?.amountMinor ?? 0, terms: result.terms });
+  };
+
+  /** The development-only card chooser; production takes real card details through Stripe. */
+  const testCards: RequestHandler = (_req, res) => {
+    if (ctx.config.NODE_ENV === 'production') throw notFound('That API route');
+    res.json({ cards: TEST_CARDS });
+  };
+
+  return { hold, list, show, terms, pay, move, cancel, testCards };
+}

@@ -1,0 +1,115 @@
+import { formatMoney } from '@shared/booking';
+import type { AppContext } from '../context';
+import { Consultation, User } from '../models';
+import { consultationInvite } from './calendar';
+import { renderMail } from './layout';
+
+/** Where e-mail links point: the configured public address, or the local server. */
+export function publicUrl(ctx: Pick<AppContext, 'config'>): string {
+  return (ctx.config.PUBLIC_URL ?? `http://127.0.0.1:${ctx.config.PORT}`).replace(/\/$/, '');
+}
+
+/** "Tuesday 9 March 2027, 09:00 (Europe/Berlin)" in the reader's own zone. */
+export function formatWhen(date: Date, timeZone: string): string {
+  const text = new Intl.DateTimeFormat('en-GB', { timeZone, weekday: 'long', day: 'numeric', month: 'long', year: 'numeric', hour: '2-digit', minute: '2-digit', hourCycle: 'h23' }).format(date);
+  return `${text} (${timeZone})`;
+}
+
+async function parties(consultation: Consultation) {
+  const [rider, fitter] = await Promise.all([User.findByPk(consultation.riderId), User.findByPk(consultation.fitterId)]);
+  if (!rider || !fitter) throw new Error(`consultation ${consultation.id} has lost a party`);
+  return { rider, fitter };
+}
+
+function inviteFor(ctx: AppContext, consultation: Consultation, fitter: User, person: User, cancelled: boolean) {
+  const content = consultationInvite({
+    consultation,
+    cancelled,
+    link: `${publicUrl(ctx)}/consultations/${consultation.id}`,
+    fitterName: fitter.displayName,
+    organizerEmail: ctx.config.MAIL_FROM.match(/<([^>]+)>/)?.[1] ?? 'no-reply@saddlestep.test',
+    attendee: { name: person.displayName, email: person.email },
+  });
+  return { filename: cancelled ? 'cancel.ics' : 'invite.ics', content, contentType: `text/calendar; charset=utf-8; method=${cancelled ? 'CANCEL' : 'REQUEST'}`, method: cancelled ? 'CANCEL' : 'REQUEST' };
+}
+
+/** Confirmation (or update after a reschedule) with a calendar invite, to rider and fitter. */
+export async function sendBookingConfirmation(ctx: AppContext, consultation: Consultation, kind: 'booked' | 'moved') {
+  const { rider, fitter } = await parties(consultation);
+  const link = `${publicUrl(ctx)}/consultations/${consultation.id}`;
+  for (const person of [rider, fitter]) {
+    const other = person.id === rider.id ? fitter.displayName : rider.displayName;
+    const mail = renderMail({
+      subject: kind === 'booked' ? `Booked: bike-fit session on ${formatWhen(consultation.startsAt, person.timeZone)}` : `Moved: your bike-fit session is now ${formatWhen(consultation.startsAt, person.timeZone)}`,
+      paragraphs: [
+        `Hello ${person.displayName},`,
+        kind === 'booked' ? `Your session with ${other} is booked.` : `Your session with ${other} has a new time.`,
+        `When: ${formatWhen(consultation.startsAt, person.timeZone)}.`,
+        'The attached invite adds it to your calendar. Join from Saddlestep at that time.',
+      ],
+      action: { label: 'Open the session', url: link },
+    });
+    await ctx.mailer.send({ to: person.email, ...mail, attachments: [inviteFor(ctx, consultation, fitter, person, false)] });
+  }
+}
+
+export async function sendReceipt(ctx: AppContext, consultation: Consultation, payment: { amountMinor: number; currency: string; stripeChargeId: string | null; createdAt: Date }) {
+  const { rider, fitter } = await parties(consultation);
+  const mail = renderMail({
+    subject: `Receipt: ${formatMoney(payment.amountMinor, payment.currency, 'en-GB')} for your bike-fit session`,
+    paragraphs: [
+      `Hello ${rider.displayName},`,
+      `We received ${formatMoney(payment.amountMinor, payment.currency, 'en-GB')} on ${formatWhen(payment.createdAt, rider.timeZone)} for a remote bike-fit session with ${fitter.displayName}.`,
+      `Reference: ${payment.stripeChargeId ?? 'pending'} · session ${consultation.id}.`,
+    ],
+    action: { label: 'See your booking', url: `${publicUrl(ctx)}/consultations/${consultation.id}` },
+  });
+  await ctx.mailer.send({ to: rider.email, ...mail });
+}
+
+export async function sendReminder(ctx: AppContext, consultation: Consultation) {
+  const { rider, fitter } = await parties(consultation);
+  const mail = renderMail({
+    subject: `Tomorrow: bike-fit session at ${formatWhen(consultation.startsAt, rider.timeZone)}`,
+    paragraphs: [
+      `Hello ${rider.displayName},`,
+      `A reminder: your session with ${fitter.displayName} starts ${formatWhen(consultation.startsAt, rider.timeZone)}.`,
+      'Have your bike on a trainer, a tape measure and a spirit level at hand.',
+    ],
+    action: { label: 'Open the session', url: `${publicUrl(ctx)}/consultations/${consultation.id}` },
+  });
+  await ctx.mailer.send({ to: rider.email, ...mail });
+}
+
+/** Cancellation notice with the calendar cancellation and the refund, to both parties. */
+export async function sendCancellation(ctx: AppContext, consultation: Consultation, refund: { amountMinor: number; currency: string; reason: string } | null) {
+  const { rider, fitter } = await parties(consultation);
+  for (const person of [rider, fitter]) {
+    const refundLine = refund && person.id === rider.id
+      ? refund.amountMinor > 0
+        ? `${formatMoney(refund.amountMinor, refund.currency, 'en-GB')} is on its way back to your card. ${refund.reason}`
+        : `No refund is due. ${refund.reason}`
+      : '';
+    const mail = renderMail({
+      subject: `Cancelled: bike-fit session on ${formatWhen(consultation.startsAt, person.timeZone)}`,
+      paragraphs: [`Hello ${person.displayName},`, `The session on ${formatWhen(consultation.startsAt, person.timeZone)} is cancelled.`, refundLine].filter(Boolean),
+      action: { label: 'See the booking', url: `${publicUrl(ctx)}/consultations/${consultation.id}` },
+    });
+    await ctx.mailer.send({ to: person.email, ...mail, attachments: [inviteFor(ctx, consultation, fitter, person, true)] });
+  }
+}
+
+export async function sendWelcome(ctx: AppContext, user: User) {
+  const pending = user.status === 'pending';
+  const mail = renderMail({
+    subject: 'Welcome to Saddlestep',
+    paragraphs: [
+      `Hello ${user.displayName},`,
+      pending
+        ? 'Thanks for signing up. The clinic reviews new fitters and physiotherapists; we will let you know when you can sign in.'
+        : 'Your account is ready. Start by telling us what hurts and recording your bike as it is today, so any change can be undone.',
+    ],
+    action: { label: 'Open Saddlestep', url: `${publicUrl(ctx)}/sign-in` },
+  });
+  await ctx.mailer.send({ to: user.email, ...mail });
+}

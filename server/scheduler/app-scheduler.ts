@@ -1,0 +1,29 @@
+import type { Sequelize } from 'sequelize';
+import type { AppContext } from '../context';
+import { Consultation } from '../models';
+import { sendReminder } from '../mail/booking-mails';
+import { BOOKING_REMINDER } from '../services/booking-jobs';
+import { expireHolds } from '../services/booking';
+import { createScheduler } from './scheduler';
+
+/**
+ * The scheduler with Saddlestep's job handlers. `sequelize` defaults to the app's pool; tests pass
+ * a second pool to act as a second server process competing for the same jobs.
+ */
+export function createAppScheduler(ctx: AppContext, options: { sequelize?: Sequelize; intervalMs?: number; instanceId?: string } = {}) {
+  return createScheduler({
+    sequelize: options.sequelize ?? ctx.sequelize,
+    logger: ctx.logger,
+    intervalMs: options.intervalMs,
+    instanceId: options.instanceId,
+    periodic: [() => expireHolds(ctx)],
+    handlers: {
+      /** Never for a cancelled or moved booking: the job re-reads the booking when it runs. */
+      [BOOKING_REMINDER]: async (payload) => {
+        const consultation = await Consultation.findByPk(Number(payload.consultationId));
+        if (!consultation || consultation.status !== 'booked' || consultation.calendarSequence !== Number(payload.sequence)) return;
+        await sendReminder(ctx, consultation);
+      },
+    },
+  });
+}

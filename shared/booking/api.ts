@@ -1,0 +1,33 @@
+import { z } from 'zod';
+import { availabilitySchema, fitterProfileSchema, localDateSchema } from './availability';
+
+const instant = z.iso.datetime({ offset: true, error: 'Send the time as an ISO date-time, like 2027-03-09T08:00:00Z.' }).transform((s) => new Date(s));
+
+export const holdSlotSchema = z.strictObject({
+  fitterId: z.number({ error: 'Choose a fitter.' }).int().positive(),
+  startsAt: instant,
+});
+
+/** Stripe test tokens in development, real card tokens from Stripe Elements in production. */
+export const paymentSchema = z.strictObject({
+  token: z.string({ error: 'Choose a card.' }).regex(/^tok_[A-Za-z0-9_]{1,96}$/, 'That card token is not valid.'),
+  /** The client's idempotency key for this attempt (a UUID made when the pay button is first pressed). */
+  attemptKey: z.uuid({ error: 'Missing payment attempt id; reload the page.' }),
+});
+
+export const rescheduleSchema = z.strictObject({ startsAt: instant });
+
+export const cancelSchema = z.strictObject({
+  reason: z.string().trim().max(500, 'Keep the reason under 500 characters.').optional(),
+});
+
+export const slotRangeSchema = z.strictObject({ from: localDateSchema, to: localDateSchema }).refine((r) => r.to >= r.from, { message: 'The end date must not be before the start date.', path: ['to'] });
+
+export const fitterSettingsSchema = z.strictObject({ profile: fitterProfileSchema, availability: availabilitySchema });
+
+/** Test cards offered by the development-only chooser (Stripe's documented test tokens). */
+export const TEST_CARDS = [
+  { token: 'tok_visa', label: 'Visa that pays' },
+  { token: 'tok_mastercard', label: 'Mastercard that pays' },
+  { token: 'tok_chargeDeclined', label: 'Card that is declined' },
+] as const;

@@ -1,0 +1,22 @@
+import { z } from 'zod';
+import { cancellationPolicySchema } from '../booking/refund-policy';
+import { CURRENCIES } from '../booking/money';
+import { policySchema } from '../fit/planner/schemas';
+
+/**
+ * Clinic-wide settings an admin may change. The planner part is checked against the hard safety
+ * bounds in shared/fit/planner (checkPolicy) before it is stored; values here are invented demo
+ * defaults unless the planner constants say otherwise.
+ */
+export const clinicSettingsSchema = z.strictObject({
+  /** Fee offered to a new fitter profile, in minor units of `currency`. */
+  defaultFeeMinor: z.number().int().min(0).max(10_000_000).default(9000),
+  currency: z.enum(CURRENCIES).default('EUR'),
+  cancellation: cancellationPolicySchema.default(cancellationPolicySchema.parse({})),
+  /** Minutes a slot stays held while the rider pays (common practice for ticketing/booking, 5–15). */
+  holdMinutes: z.number().int().min(2).max(30).default(10),
+  planner: policySchema.default(policySchema.parse({})),
+});
+export type ClinicSettings = z.infer<typeof clinicSettingsSchema>;
+export type ClinicSettingsInput = z.input<typeof clinicSettingsSchema>;
+export const DEFAULT_CLINIC_SETTINGS: ClinicSettings = clinicSettingsSchema.parse({});
