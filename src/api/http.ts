@@ -151,6 +151,9 @@ export const http = {
   async post<T>(path: string, body: unknown, schema: z.ZodType<T>, options: RequestOptions = {}): Promise<T> {
     return parsed(await send('POST', path, body, options), schema);
   },
+  async put<T>(path: string, body: unknown, schema: z.ZodType<T>, options: RequestOptions = {}): Promise<T> {
+    return parsed(await send('PUT', path, body, options), schema);
+  },
   /** For endpoints that answer 204 No Content. */
   async postEmpty(path: string, body?: unknown, options: RequestOptions = {}): Promise<void> {
     await send('POST', path, body, options);
