@@ -7,6 +7,7 @@ import type { createAuthController } from '../controllers/auth';
 import * as homes from '../controllers/homes';
 import * as adminAccounts from '../controllers/admin-accounts';
 import type { AppContext } from '../context';
+import { createRiderJourneyRouter } from './rider-journey';
 import { createBookingRouter } from './booking';
 
 interface RouteDeps {
@@ -38,6 +39,7 @@ export function createApiRouter(ctx: AppContext, { auth, authRateLimit, health }
   api.post('/admin/accounts/:id/decision', requireRole('admin'), validateBody(accountDecisionSchema), adminAccounts.decide);
 
   // Feature routers (one file each in server/routes/) are mounted here, before the 404.
+  api.use(createRiderJourneyRouter(ctx));
   api.use(createBookingRouter(ctx));
 
   api.use(apiNotFound);

@@ -1,0 +1,39 @@
+/**
+ * Consent texts, versioned. The server stores the kind, the version and a SHA-256 of the exact
+ * text the rider agreed to, so a later change of wording never rewrites what was agreed.
+ * Changing a text means adding a new version here; old versions stay for the record.
+ */
+export const CONSENT_KINDS = ['store-health-data', 'share-with-physio'] as const;
+export type ConsentKind = (typeof CONSENT_KINDS)[number];
+
+export interface ConsentText {
+  version: string;
+  title: string;
+  text: string;
+}
+
+export const CONSENT_TEXTS: Record<ConsentKind, readonly ConsentText[]> = {
+  'store-health-data': [
+    {
+      version: '2026-12-01',
+      title: 'Storing and sharing your health information',
+      text:
+        'I agree that Saddlestep stores what I tell it about my pain, injuries and body, and the photos and clips I upload, ' +
+        'so that a bike fitter can prepare for and run my consultation. Only I, the fitter I book, and a physiotherapist I am ' +
+        'referred to (with my separate agreement) can see it; clinic administrators cannot. Every time someone opens it, that ' +
+        'is recorded. I can export or delete my information, and withdraw this agreement, at any time; without it I cannot book.',
+    },
+  ],
+  // Added by the physio referral feature; listed now so the table and API take it without change.
+  'share-with-physio': [],
+};
+
+/** The version a rider must agree to today, or null when the kind has no text yet. */
+export function currentConsent(kind: ConsentKind): ConsentText | null {
+  const versions = CONSENT_TEXTS[kind];
+  return versions[versions.length - 1] ?? null;
+}
+
+export function consentTextFor(kind: ConsentKind, version: string): ConsentText | null {
+  return CONSENT_TEXTS[kind].find((t) => t.version === version) ?? null;
+}
