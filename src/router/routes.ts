@@ -21,6 +21,10 @@ export const ROUTE = {
   fitterHome: 'fitter-home',
   physioHome: 'physio-home',
   adminHome: 'admin-home',
+  fitterAvailability: 'fitter-availability',
+  book: 'book',
+  checkout: 'checkout',
+  consultation: 'consultation',
   notFound: 'not-found',
 } as const;
 export type RouteName = (typeof ROUTE)[keyof typeof ROUTE];
@@ -36,5 +40,10 @@ export const routes: RouteRecordRaw[] = [
   { path: '/fitter', name: ROUTE.fitterHome, component: () => import('@/views/FitterHomeView.vue'), meta: { roles: ['fitter'], title: 'Today' } },
   { path: '/physio', name: ROUTE.physioHome, component: () => import('@/views/PhysioHomeView.vue'), meta: { roles: ['physio'], title: 'Referrals' } },
   { path: '/admin', name: ROUTE.adminHome, component: () => import('@/views/AdminHomeView.vue'), meta: { roles: ['admin'], title: 'Clinic' } },
+  // Booking: the fitter's week, the rider's hold → pay → confirmed, and one page per consultation.
+  { path: '/fitter/availability', name: ROUTE.fitterAvailability, component: () => import('@/views/FitterAvailabilityView.vue'), meta: { roles: ['fitter'], title: 'Availability' } },
+  { path: '/book', name: ROUTE.book, component: () => import('@/views/BookView.vue'), meta: { roles: ['rider'], title: 'Book' } },
+  { path: '/consultations/:id(\\d+)/pay', name: ROUTE.checkout, component: () => import('@/views/CheckoutView.vue'), meta: { roles: ['rider'], title: 'Pay for your session' } },
+  { path: '/consultations/:id(\\d+)', name: ROUTE.consultation, component: () => import('@/views/ConsultationView.vue'), meta: { roles: ['rider', 'fitter'], title: 'Your session' } },
   { path: '/:pathMatch(.*)*', name: ROUTE.notFound, component: () => import('@/views/NotFoundView.vue'), meta: { title: 'Page not found' } },
 ];

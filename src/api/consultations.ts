@@ -1,0 +1,88 @@
+import { z } from 'zod';
+import { CONSULTATION_STATES } from '@shared/consultation';
+import { ApiError, http } from './http';
+
+const partySchema = z.object({ id: z.number(), displayName: z.string(), timeZone: z.string() });
+
+const consultationSchema = z.object({
+  id: z.number(),
+  status: z.enum(CONSULTATION_STATES),
+  statusLabel: z.string(),
+  startsAt: z.string(),
+  endsAt: z.string(),
+  holdExpiresAt: z.string().nullable(),
+  feeMinor: z.number(),
+  currency: z.string(),
+  flaggedForPhysio: z.boolean(),
+  rider: partySchema.nullable(),
+  fitter: partySchema.nullable(),
+  payment: z
+    .object({ status: z.string(), amountMinor: z.number(), refundedMinor: z.number(), currency: z.string() })
+    .nullable(),
+});
+export type ConsultationView = z.infer<typeof consultationSchema>;
+
+const envelope = z.object({ consultation: consultationSchema });
+
+const termsSchema = z.object({ amountMinor: z.number(), share: z.number(), reason: z.string(), mayReschedule: z.boolean() });
+export type CancellationTerms = z.infer<typeof termsSchema>;
+
+/**
+ * Whether the rider may book now. Read leniently: the intake feature owns this endpoint, and only
+ * `ready`, `reason` and `level` matter to the booking page.
+ */
+const readinessSchema = z.object({
+  ready: z.boolean(),
+  code: z.string().optional(),
+  reason: z.string().optional(),
+  level: z.enum(['none', 'physio-routine', 'physio-soon', 'urgent']).nullish(),
+  intakeId: z.number().optional(),
+  flaggedForPhysio: z.boolean().optional(),
+});
+export type BookingReadiness = z.infer<typeof readinessSchema>;
+
+const testCardSchema = z.object({ token: z.string(), label: z.string() });
+export type TestCard = z.infer<typeof testCardSchema>;
+
+export const consultationsApi = {
+  readiness: () => http.get('/api/rider/booking-readiness', readinessSchema),
+
+  async list(): Promise<ConsultationView[]> {
+    const { consultations } = await http.get('/api/consultations', z.object({ consultations: z.array(consultationSchema) }));
+    return consultations;
+  },
+  async show(id: number): Promise<ConsultationView> {
+    return (await http.get(`/api/consultations/${id}`, envelope)).consultation;
+  },
+  /** Holds the slot for the rider while they pay; 409 when someone else was quicker. */
+  async hold(fitterId: number, startsAt: string): Promise<ConsultationView> {
+    return (await http.post('/api/consultations', { fitterId, startsAt }, envelope)).consultation;
+  },
+  /** The same `attemptKey` for a retried attempt, so the card is charged at most once. */
+  async pay(id: number, token: string, attemptKey: string): Promise<ConsultationView> {
+    return (await http.post(`/api/consultations/${id}/payment`, { token, attemptKey }, envelope)).consultation;
+  },
+  async reschedule(id: number, startsAt: string): Promise<ConsultationView> {
+    return (await http.post(`/api/consultations/${id}/reschedule`, { startsAt }, envelope)).consultation;
+  },
+  async cancellationTerms(id: number): Promise<CancellationTerms | null> {
+    return (await http.get(`/api/consultations/${id}/cancellation-terms`, z.object({ terms: termsSchema.nullable() }))).terms;
+  },
+  cancel(id: number, reason?: string) {
+    const body = reason ? { reason } : {};
+    return http.post(
+      `/api/consultations/${id}/cancel`,
+      body,
+      z.object({ consultation: consultationSchema, refundedMinor: z.number(), terms: termsSchema.nullable().optional() }),
+    );
+  },
+  /** Development only: the server answers 404 in production, where real card entry takes over. */
+  async testCards(): Promise<TestCard[] | null> {
+    try {
+      return (await http.get('/api/payments/test-cards', z.object({ cards: z.array(testCardSchema) }))).cards;
+    } catch (caught) {
+      if (caught instanceof ApiError && caught.status === 404) return null;
+      throw caught;
+    }
+  },
+};
