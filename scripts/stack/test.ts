@@ -67,7 +67,9 @@ try {
     CLIENT_DIST: path.join(root, 'dist'),
     AUTH_RATE_LIMIT: '10000',
   };
-  Object.assign(process.env, testEnv, { PORT: '0' });
+  const serverPort = await freePort();
+  testEnv.PUBLIC_URL = `http://127.0.0.1:${serverPort}`;
+  Object.assign(process.env, testEnv, { PORT: String(serverPort) });
 
   // One real server for the browser tests (API tests build their own app per file).
   const { loadConfig } = await import('../../server/config');

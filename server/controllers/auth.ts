@@ -8,7 +8,7 @@ import type { PasswordHasher } from '../services/passwords';
 import { presentUser } from '../presenters/user';
 import type { User } from '../models';
 import type { AppContext } from '../context';
-import { sendWelcome } from '../mail/booking-mails';
+import { sendWelcome } from '../mail/account-mails';
 
 interface AuthControllerDeps {
   passport: AppPassport;

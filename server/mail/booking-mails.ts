@@ -98,18 +98,3 @@ export async function sendCancellation(ctx: AppContext, consultation: Consultati
     await ctx.mailer.send({ to: person.email, ...mail, attachments: [inviteFor(ctx, consultation, fitter, person, true)] });
   }
 }
-
-export async function sendWelcome(ctx: AppContext, user: User) {
-  const pending = user.status === 'pending';
-  const mail = renderMail({
-    subject: 'Welcome to Saddlestep',
-    paragraphs: [
-      `Hello ${user.displayName},`,
-      pending
-        ? 'Thanks for signing up. The clinic reviews new fitters and physiotherapists; we will let you know when you can sign in.'
-        : 'Your account is ready. Start by telling us what hurts and recording your bike as it is today, so any change can be undone.',
-    ],
-    action: { label: 'Open Saddlestep', url: `${publicUrl(ctx)}/sign-in` },
-  });
-  await ctx.mailer.send({ to: user.email, ...mail });
-}

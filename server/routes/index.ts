@@ -5,7 +5,7 @@ import { requireRole, requireSignedIn } from '../middleware/require-role';
 import { apiNotFound } from '../middleware/error-handler';
 import type { createAuthController } from '../controllers/auth';
 import * as homes from '../controllers/homes';
-import * as adminAccounts from '../controllers/admin-accounts';
+import { createAdminAccountsController } from '../controllers/admin-accounts';
 import type { AppContext } from '../context';
 import { createRiderJourneyRouter } from './rider-journey';
 import { createBookingRouter } from './booking';
@@ -22,6 +22,8 @@ interface RouteDeps {
  */
 export function createApiRouter(ctx: AppContext, { auth, authRateLimit, health }: RouteDeps): Router {
   const api = Router();
+
+  const adminAccounts = createAdminAccountsController(ctx);
 
   api.get('/health', health);
 

@@ -1,6 +1,8 @@
 import { availabilitySchema, type AvailabilityInput } from '@shared/booking';
 import { FitterProfile } from '@server/models';
-import { buildUser } from './factories';
+import type { SaddlestepApp } from '@server/app';
+import { questionsToAsk, currentConsent } from '@shared/rider';
+import { buildUser, signedInAs } from './factories';
 
 /** Every day 06:00–22:00 in the fitter's zone, one-hour sessions, no buffer or notice. */
 export const OPEN_WEEK: AvailabilityInput = {
@@ -33,11 +35,23 @@ export function isoDateIn(days: number): string {
   return new Date(Date.now() + days * 86_400_000).toISOString().slice(0, 10);
 }
 
+/** Answers for a submitted intake: one sore knee, no red flags, consent given (the current text). */
+export function calmIntake() {
+  return {
+    symptoms: [{ region: 'knee-front-left', pain: 3, kind: 'ache', timing: ['during-ride'], durationDays: 21 }],
+    redFlagAnswers: Object.fromEntries(questionsToAsk({}, []).map((id) => [id, false])),
+    goals: ['ride-without-pain'],
+    consent: { kind: 'store-health-data', version: currentConsent('store-health-data')!.version, agreed: true },
+  };
+}
+
 /**
  * A signed-in rider who has passed the intake gate (a submitted intake with consent and no urgent
  * red flag), so booking tests can focus on booking.
  */
-export async function riderReadyToBook(app: import('@server/app').SaddlestepApp['app']) {
-  const { signedInAs } = await import('./factories');
-  return signedInAs(app, 'rider');
+export async function riderReadyToBook(app: SaddlestepApp['app']) {
+  const rider = await signedInAs(app, 'rider');
+  const res = await rider.post('/api/rider/intake/submit', calmIntake());
+  if (res.status !== 200 && res.status !== 201) throw new Error(`intake submit failed: ${res.status} ${JSON.stringify(res.body)}`);
+  return rider;
 }

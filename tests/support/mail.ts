@@ -5,7 +5,7 @@ export interface CaughtMail {
   text?: string;
   html?: string;
   to: { address: string; name?: string }[];
-  attachments?: { fileName?: string; generatedFileName?: string; contentType: string }[];
+  attachments?: { filename?: string; generatedFileName?: string; contentType: string }[];
 }
 
 function inbox(): string {
@@ -15,7 +15,7 @@ function inbox(): string {
 }
 
 export async function mailsTo(address: string): Promise<CaughtMail[]> {
-  const res = await fetch(`${inbox()}/email?${new URLSearchParams({ 'to.address': address })}`);
+  const res = await fetch(`${inbox()}/api/email?${new URLSearchParams({ 'to.address': address })}`);
   return (await res.json()) as CaughtMail[];
 }
 
@@ -29,8 +29,11 @@ export async function waitForMails(address: string, options: { subject?: RegExp;
   }
 }
 
+/** The text of an attachment by its original file name (maildev stores it under a generated name). */
 export async function attachmentText(mail: CaughtMail, fileName: string): Promise<string> {
-  const res = await fetch(`${inbox()}/email/${mail.id}/attachment/${encodeURIComponent(fileName)}`);
+  const stored = mail.attachments?.find((a) => a.filename === fileName)?.generatedFileName;
+  if (!stored) throw new Error(`no attachment named ${fileName} in "${mail.subject}"`);
+  const res = await fetch(`${inbox()}/api/email/${mail.id}/attachment/${encodeURIComponent(stored)}`);
   if (!res.ok) throw new Error(`attachment ${fileName} not found (${res.status})`);
   return res.text();
 }
