@@ -2,7 +2,7 @@
 import { z } from 'zod';
 import { setupSchema, isoDateSchema } from '../fit/setup';
 import { setupInUnitSchema } from './measure';
-import { plainText, strictShape } from './text';
+import { plainText, strictShape, unitUnionError } from './text';
 
 export const BIKE_KINDS = ['road', 'gravel', 'mountain', 'hybrid', 'tt-triathlon', 'touring', 'other'] as const;
 export type BikeKind = (typeof BIKE_KINDS)[number];
@@ -28,7 +28,10 @@ export const BIKE_LIMITS = { nameMax: 60, notesMax: 500, cleatNotesMax: 500, bik
 const bikeName = plainText('bike name', BIKE_LIMITS.nameMax).pipe(z.string().min(1, 'Give the bike a name, like "Blue road bike".'));
 
 /** Today or earlier, so a snapshot is never dated in the future. */
-const takenOn = isoDateSchema.refine((d) => d <= new Date().toISOString().slice(0, 10), 'The date cannot be in the future.');
+const takenOn = z
+  .string({ error: 'Enter the date you measured it, like 2026-03-01.' })
+  .pipe(isoDateSchema)
+  .refine((d) => d <= new Date().toISOString().slice(0, 10), 'The date cannot be in the future.');
 
 function snapshotShape<U extends 'mm' | 'in'>(unit: U) {
   return strictShape({
@@ -41,7 +44,7 @@ function snapshotShape<U extends 'mm' | 'in'>(unit: U) {
 
 /** A measured setup typed in mm or inches (degrees stay degrees); output in millimetres. */
 export const snapshotInputSchema = z.discriminatedUnion('unit', [snapshotShape('mm'), snapshotShape('in')], {
-  error: 'Choose mm or in as the unit.',
+  error: unitUnionError('the measured setup'),
 });
 export type SnapshotInput = z.input<typeof snapshotInputSchema>;
 export type SnapshotParsed = z.output<typeof snapshotInputSchema>;

@@ -47,6 +47,10 @@ export function setupInUnitSchema(unit: LengthUnit) {
   const shape = {} as Record<SetupParameter, ReturnType<typeof measureSchema>>;
   for (const p of SETUP_PARAMETERS) shape[p] = measureSchema(PARAMETER_INFO[p], unit);
   return z.strictObject(shape, {
-    error: (issue) => (issue.code === 'unrecognized_keys' ? `Unexpected setup field: ${issue.keys.join(', ')}.` : undefined),
+    error: (issue) => {
+      if (issue.code === 'unrecognized_keys') return `Unexpected setup field: ${issue.keys.join(', ')}.`;
+      if (issue.code === 'invalid_type') return 'Enter the bike setup: saddle height, setback, tilt, reach, drop and the rest.';
+      return undefined;
+    },
   });
 }

@@ -2,7 +2,7 @@
 import { z } from 'zod';
 import { LENGTH_UNITS } from '../units';
 import { lengthUnitSchema, measureSchema, type MeasureInfo } from './measure';
-import { plainText, strictShape } from './text';
+import { plainText, strictShape, unitUnionError } from './text';
 
 /** Body measurements with their limits (typing or unit mistakes, not advice) and how to measure. */
 export const BODY_MEASURES = {
@@ -79,7 +79,7 @@ function profileShape(unit: (typeof LENGTH_UNITS)[number]) {
  * preference) and come out in millimetres as `height`/`inseam`. Missing fields mean "not known".
  */
 export const profileInputSchema = z.discriminatedUnion('unit', [profileShape('mm'), profileShape('in')], {
-  error: 'Choose mm or in as the unit.',
+  error: unitUnionError('your profile'),
 });
 export type ProfileInput = z.input<typeof profileInputSchema>;
 export type ProfileParsed = z.output<typeof profileInputSchema>;

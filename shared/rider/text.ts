@@ -19,10 +19,22 @@ export function plainText(label: string, max: number) {
 }
 
 /** Objects refuse unknown fields by name, so a smuggled field gets a clear 400. */
-export function strictShape<T extends z.core.$ZodLooseShape>(shape: T) {
+export function strictShape<T extends z.core.$ZodLooseShape>(shape: T, what = 'the form') {
   return z.strictObject(shape, {
-    error: (issue) => (issue.code === 'unrecognized_keys' ? `Unexpected field: ${issue.keys.join(', ')}.` : undefined),
+    error: (issue) => {
+      if (issue.code === 'unrecognized_keys') return `Unexpected field: ${issue.keys.join(', ')}.`;
+      if (issue.code === 'invalid_type') return `Send ${what} as a set of named fields.`;
+      return undefined;
+    },
   });
+}
+
+/** For a discriminated union on `unit`: a missing object and a missing unit get different messages. */
+export function unitUnionError(what: string) {
+  return (issue: { input?: unknown }) =>
+    issue.input === null || typeof issue.input !== 'object' || Array.isArray(issue.input)
+      ? `Send ${what} as a set of named fields.`
+      : 'Choose mm or in as the unit.';
 }
 
 /** A positive database id sent in a body. */

@@ -19,8 +19,8 @@ export function bikeBody(overrides: Record<string, unknown> = {}) {
 }
 
 /** Every question that the intake asks answered "no". */
-export function allNo(symptoms: { afterCrash?: boolean }[] = []): Record<string, boolean> {
-  return Object.fromEntries(questionsToAsk({}, symptoms).map((id) => [id, false]));
+export function allNo(symptoms: readonly object[] = []): Record<string, boolean> {
+  return Object.fromEntries(questionsToAsk({}, symptoms as { afterCrash?: boolean }[]).map((id) => [id, false]));
 }
 
 export const kneeSymptom = (overrides: Record<string, unknown> = {}) => ({
