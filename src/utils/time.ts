@@ -47,7 +47,7 @@ export function formatDayHeading(dateKey: string): string {
 
 /** "09:30" (or "9:30 AM", as the viewer's locale writes times) in `zone`. */
 export function formatTime(instant: string, zone: string | undefined): string {
-  return format(new Date(instant), zone, { hour: '2-digit', minute: '2-digit' });
+  return format(new Date(instant), zone, { hour: 'numeric', minute: '2-digit' });
 }
 
 /** "Tuesday 9 March 2027 at 09:00" in `zone`. */
