@@ -1,6 +1,7 @@
 import type { PasswordHasher } from '../services/passwords';
 import { upsertUser } from '../services/users';
 import { DEMO_PASSWORD, DEMO_PEOPLE } from './demo-people';
+import { seedDemoRiders } from './demo-riders';
 
 /**
  * Load the demo scenario. Idempotent: people are found by e-mail and never duplicated, and
@@ -12,5 +13,6 @@ export async function seedDemo(hasher: PasswordHasher): Promise<{ created: numbe
     const result = await upsertUser({ ...person, password: DEMO_PASSWORD }, hasher);
     if (result.created) created += 1;
   }
+  await seedDemoRiders();
   return { created };
 }

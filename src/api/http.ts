@@ -154,8 +154,33 @@ export const http = {
   async put<T>(path: string, body: unknown, schema: z.ZodType<T>, options: RequestOptions = {}): Promise<T> {
     return parsed(await send('PUT', path, body, options), schema);
   },
+  async patch<T>(path: string, body: unknown, schema: z.ZodType<T>, options: RequestOptions = {}): Promise<T> {
+    return parsed(await send('PATCH', path, body, options), schema);
+  },
+  /** DELETE, for endpoints that answer 204 No Content. */
+  async deleteEmpty(path: string, options: RequestOptions = {}): Promise<void> {
+    await send('DELETE', path, undefined, options);
+  },
   /** For endpoints that answer 204 No Content. */
   async postEmpty(path: string, body?: unknown, options: RequestOptions = {}): Promise<void> {
     await send('POST', path, body, options);
   },
+};
+
+/**
+ * The same session plumbing for the one other transport, XHR uploads with progress
+ * (src/api/uploads.ts): the CSRF token (fresh after a stale-token refusal), the error shape, and
+ * the one place a 401 is reported.
+ */
+export const uploadSession = {
+  csrfToken: (fresh: boolean) => csrfToken(fresh),
+  errorFromBody(status: number, body: unknown): ApiError {
+    const parsedBody = errorBodySchema.safeParse(body);
+    if (!parsedBody.success) return new ApiError(status, 'http_error', fallbackMessage(status));
+    const { code, message, fields } = parsedBody.data.error;
+    return new ApiError(status, code, message, fields);
+  },
+  unauthorized: (error: ApiError) => hooks.onUnauthorized(error),
+  networkError: () => new ApiError(0, 'network_error', NETWORK_MESSAGE),
+  unreadable: (status: number) => new ApiError(status, 'bad_response', UNREADABLE_MESSAGE),
 };

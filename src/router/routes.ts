@@ -21,6 +21,9 @@ export const ROUTE = {
   fitterHome: 'fitter-home',
   physioHome: 'physio-home',
   adminHome: 'admin-home',
+  riderAboutMe: 'rider-about-me',
+  riderBike: 'rider-bike',
+  riderIntake: 'rider-intake',
   fitterAvailability: 'fitter-availability',
   book: 'book',
   checkout: 'checkout',
@@ -40,6 +43,10 @@ export const routes: RouteRecordRaw[] = [
   { path: '/fitter', name: ROUTE.fitterHome, component: () => import('@/views/FitterHomeView.vue'), meta: { roles: ['fitter'], title: 'Today' } },
   { path: '/physio', name: ROUTE.physioHome, component: () => import('@/views/PhysioHomeView.vue'), meta: { roles: ['physio'], title: 'Referrals' } },
   { path: '/admin', name: ROUTE.adminHome, component: () => import('@/views/AdminHomeView.vue'), meta: { roles: ['admin'], title: 'Clinic' } },
+  // The rider's journey before booking: profile and bikes, then the intake with photos.
+  { path: '/rider/about-me', name: ROUTE.riderAboutMe, component: () => import('@/views/AboutMeView.vue'), meta: { roles: ['rider'], title: 'About me · My bikes' } },
+  { path: '/rider/bikes/:id(\\d+)', name: ROUTE.riderBike, component: () => import('@/views/BikeView.vue'), meta: { roles: ['rider'], title: 'My bike' } },
+  { path: '/rider/tell-us-what-hurts', name: ROUTE.riderIntake, component: () => import('@/views/IntakeView.vue'), meta: { roles: ['rider'], title: 'Tell us what hurts' } },
   // Booking: the fitter's week, the rider's hold → pay → confirmed, and one page per consultation.
   { path: '/fitter/availability', name: ROUTE.fitterAvailability, component: () => import('@/views/FitterAvailabilityView.vue'), meta: { roles: ['fitter'], title: 'Availability' } },
   { path: '/book', name: ROUTE.book, component: () => import('@/views/BookView.vue'), meta: { roles: ['rider'], title: 'Book' } },

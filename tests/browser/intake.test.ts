@@ -1,0 +1,128 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { randomUUID } from 'node:crypto';
+import sharp from 'sharp';
+import type { Page } from 'playwright-core';
+import { launchBrowser, openPage, type BrowserSession } from '../support/browser';
+
+let session: BrowserSession;
+beforeAll(async () => {
+  session = await launchBrowser();
+});
+afterAll(async () => {
+  await session?.close();
+});
+
+const input = (page: Page, test: string) => page.locator(`[data-test="${test}"] input, input[data-test="${test}"]`).first();
+
+/** A new rider registers and lands on My fit. */
+async function registerRider(page: Page, name: string) {
+  await page.goto('/register');
+  await page.locator('[data-test="role-rider"]').click();
+  await input(page, 'display-name').fill(name);
+  await input(page, 'email').fill(`${name.split(' ')[0]!.toLowerCase()}-${randomUUID().slice(0, 8)}@test.example`);
+  await input(page, 'password').fill('a-long-enough-password');
+  await page.locator('[data-test="submit"]').click();
+  await page.waitForURL('**/rider');
+}
+
+async function openIntake(page: Page) {
+  await page.locator('[data-test="next-action-go"]').click();
+  await page.waitForURL('**/rider/tell-us-what-hurts');
+  await page.locator('[data-test="body-view"]').waitFor();
+}
+
+async function answerAllNo(page: Page) {
+  const noButtons = page.locator('[data-test^="flag-"][data-test$="-no"]');
+  const count = await noButtons.count();
+  expect(count).toBeGreaterThan(5);
+  for (let i = 0; i < count; i += 1) await noButtons.nth(i).click();
+}
+
+describe('Tell us what hurts, in the browser', () => {
+  it('records a sore knee on the body map, shows the triage at once and uploads a photo with progress', async () => {
+    const { context, page } = await openPage(session.browser, { viewport: { width: 390, height: 844 } });
+    await registerRider(page, 'Imogen Testrider');
+    await openIntake(page);
+
+    // The body map works with a pointer…
+    const knee = page.locator('[data-test="region-knee-front-left"]');
+    await knee.click();
+    await expect(knee.getAttribute('aria-checked')).resolves.toBe('true');
+    await page.locator('[data-test="symptom-knee-front-left"]').waitFor();
+    // …and with the keyboard: Space marks a region, Enter unmarks it.
+    const other = page.locator('[data-test="region-knee-front-right"]');
+    await other.focus();
+    await page.keyboard.press('Space');
+    await page.locator('[data-test="symptom-knee-front-right"]').waitFor();
+    await other.focus();
+    await page.keyboard.press('Enter');
+    await page.locator('[data-test="symptom-knee-front-right"]').waitFor({ state: 'detached' });
+
+    await page.locator('[data-test="pain-knee-front-left-4"]').click();
+    await page.locator('[data-test="kind-knee-front-left-ache"]').click();
+    await page.locator('[data-test="timing-knee-front-left-during-ride"]').click();
+    await page.locator('[data-test="duration-knee-front-left-21"]').click();
+    await answerAllNo(page);
+    await page.locator('[data-test="goal-ride-without-pain"]').click();
+    await page.locator('[data-test="consent"]').click();
+    await page.locator('[data-test="intake-submit"]').click();
+
+    const result = page.locator('[data-test="triage-result"]');
+    await result.waitFor();
+    await expect(result.getAttribute('data-level')).resolves.toBe('none');
+    await expect(page.locator('[data-test="urgent-notice"]').count()).resolves.toBe(0);
+    await expect(page.locator('[data-test="booking-readiness"]').getAttribute('data-ready')).resolves.toBe('yes');
+    await expect(page.locator('[data-test="intake-cautions"]').first().innerText()).resolves.toContain('does not diagnose');
+
+    const png = await sharp({ create: { width: 48, height: 32, channels: 3, background: '#1f4d45' } }).png().toBuffer();
+    await page.locator('[data-test="upload-view-side-crank-3"]').click();
+    await page.locator('[data-test="upload-input"]').setInputFiles({ name: 'side-on.png', mimeType: 'image/png', buffer: png });
+    await page.locator('[data-test="upload-progress"][data-status="done"]').waitFor();
+    await expect(page.locator('[data-test="upload-status"]').first().innerText()).resolves.toBe('Done');
+    await page.locator('[data-test="uploads-saved"] img').first().waitFor();
+    await context.close();
+  });
+
+  it('stops a rider with an urgent red flag: the stop-riding notice, and booking blocked', async () => {
+    const { context, page } = await openPage(session.browser);
+    await registerRider(page, 'Julian Testrider');
+    await openIntake(page);
+
+    await answerAllNo(page);
+    await page.locator('[data-test="flag-bladder-bowel-change-yes"]').click();
+    await page.locator('[data-test="goal-ride-without-pain"]').click();
+    await page.locator('[data-test="consent"]').click();
+    await page.locator('[data-test="intake-submit"]').click();
+
+    const notice = page.locator('[data-test="urgent-notice"]');
+    await notice.waitFor();
+    await expect(notice.innerText()).resolves.toMatch(/stop riding/i);
+    await expect(page.locator('[data-test="triage-result"]').getAttribute('data-level')).resolves.toBe('urgent');
+    const readiness = page.locator('[data-test="booking-readiness"]');
+    await expect(readiness.getAttribute('data-ready')).resolves.toBe('no');
+    await expect(readiness.innerText()).resolves.toMatch(/Booking is not open yet/);
+    await expect(page.locator('[data-test="go-book"]').count()).resolves.toBe(0);
+
+    // My fit says the same, first thing.
+    await page.goto('/rider');
+    const home = page.locator('[data-test="home-readiness"]');
+    await home.waitFor();
+    await expect(home.getAttribute('data-code')).resolves.toBe('urgent');
+    await expect(page.locator('[data-test="home-urgent"]').innerText()).resolves.toMatch(/stop riding and get urgent medical care today/);
+    await context.close();
+  });
+
+  it('keeps a draft: half an answer saved, then resumed after a reload', async () => {
+    const { context, page } = await openPage(session.browser);
+    await registerRider(page, 'Kemal Testrider');
+    await openIntake(page);
+    await page.locator('[data-test="region-hip-left"]').click();
+    await page.locator('[data-test="pain-hip-left-3"]').click();
+    await page.locator('[data-test="intake-save-draft"]').click();
+    await page.locator('[data-test="draft-saved"]').waitFor();
+    await page.reload();
+    await page.locator('[data-test="symptom-hip-left"]').waitFor();
+    await expect(page.locator('[data-test="pain-hip-left-3"] input').isChecked()).resolves.toBe(true);
+    await context.close();
+  });
+});
