@@ -24,6 +24,8 @@ const KNOWN: Record<string, string> = {
   'application/zip': 'a zip archive',
 };
 const MB = 1024 * 1024;
+/** M4V is Apple's label for an MP4 file (the same ISO base media format): stored and served as MP4. */
+const ALIASES: Record<string, string> = { 'video/x-m4v': 'video/mp4' };
 
 /**
  * What the file really is, from its first bytes (file-type), never from its name or declared
@@ -31,7 +33,7 @@ const MB = 1024 * 1024;
  */
 export async function detectUpload(data: Buffer): Promise<Detected> {
   const found = await fileTypeFromBuffer(data);
-  const mime = found?.mime as string | undefined;
+  const mime = found ? (ALIASES[found.mime] ?? found.mime) : undefined;
   if (mime && ([...PHOTO_TYPES, ...CLIP_TYPES] as string[]).includes(mime)) {
     const contentType = mime as UploadContentType;
     return { kind: mime.startsWith('image/') ? 'photo' : 'clip', contentType, ext: EXT[contentType] };

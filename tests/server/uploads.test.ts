@@ -76,6 +76,22 @@ describe('POST /api/rider/uploads', () => {
     expect(stored.subarray(stored.indexOf('mdat') - 4)).toEqual(clip.subarray(clip.indexOf('mdat') - 4));
   });
 
+  it('keeps a WebM clip as sent and says its metadata was not removed', async () => {
+    const rider = await signedInAs(saddlestep.app, 'rider');
+    // A minimal EBML header with the "webm" DocType, as browsers' recorders write it.
+    const webm = Buffer.concat([Buffer.from([0x1a, 0x45, 0xdf, 0xa3, 0x87, 0x42, 0x82, 0x84]), Buffer.from('webm'), Buffer.alloc(200, 1)]);
+    const res = await upload(rider, webm, { name: 'clip.webm', type: 'video/webm', view: 'rear' }).expect(201);
+    expect(res.body.upload).toMatchObject({ kind: 'clip', contentType: 'video/webm', metadataStripped: false, thumbnailUrl: null });
+    const served = await rider.get(`/api/uploads/${res.body.upload.id}/file`).expect(200);
+    expect(served.headers['content-type']).toBe('video/webm');
+  });
+
+  it('takes an Apple M4V clip as the MP4 it is', async () => {
+    const rider = await signedInAs(saddlestep.app, 'rider');
+    const res = await upload(rider, mp4WithLocation('M4V'), { name: 'clip.m4v', type: 'video/x-m4v' }).expect(201);
+    expect(res.body.upload).toMatchObject({ contentType: 'video/mp4', metadataStripped: true });
+  });
+
   it.each([
     ['a text file', Buffer.from('just some words, not a picture at all\n'.repeat(20))],
     ['a PDF', Buffer.from('%PDF-1.4\n1 0 obj\n<< /Type /Catalog >>\nendobj\ntrailer\n<< /Root 1 0 R >>\n%%EOF\n')],

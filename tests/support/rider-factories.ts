@@ -64,7 +64,7 @@ export function pngBuffer(width = 40, height = 30): Promise<Buffer> {
 }
 
 /** A minimal MP4: ftyp, moov with mvhd and a udta carrying a location and a camera model, mdat. */
-export function mp4WithLocation(): Buffer {
+export function mp4WithLocation(brand = 'isom'): Buffer {
   const box = (type: string, ...payload: Buffer[]) => {
     const body = Buffer.concat(payload);
     const head = Buffer.alloc(8);
@@ -72,7 +72,7 @@ export function mp4WithLocation(): Buffer {
     head.write(type, 4, 'latin1');
     return Buffer.concat([head, body]);
   };
-  const ftyp = box('ftyp', Buffer.from('isom', 'latin1'), Buffer.from([0, 0, 2, 0]), Buffer.from('isomiso2avc1mp41', 'latin1'));
+  const ftyp = box('ftyp', Buffer.from(brand.padEnd(4, ' '), 'latin1'), Buffer.from([0, 0, 2, 0]), Buffer.from('isomiso2avc1mp41', 'latin1'));
   const mvhd = box('mvhd', Buffer.alloc(100));
   const xyz = box('\u00a9xyz', Buffer.from([0, 17, 0x15, 0xc7]), Buffer.from('+51.5000-000.1167/', 'latin1'));
   const mod = box('\u00a9mod', Buffer.from([0, 12, 0, 0]), Buffer.from('Imaginary X1', 'latin1'));
