@@ -112,6 +112,38 @@ describe('Tell us what hurts, in the browser', () => {
     await context.close();
   });
 
+  it('lets the rider retry an upload the network dropped, and refuses a renamed file with its reason', async () => {
+    const { context, page } = await openPage(session.browser);
+    await registerRider(page, 'Lena Testrider');
+    await openIntake(page);
+    const png = await sharp({ create: { width: 24, height: 24, channels: 3, background: '#c8643b' } }).png().toBuffer();
+
+    // The first attempt is cut off before it reaches the server.
+    let dropped = false;
+    await page.route('**/api/rider/uploads', async (route) => {
+      if (route.request().method() === 'POST' && !dropped) {
+        dropped = true;
+        await route.abort('connectionreset');
+      } else {
+        await route.continue();
+      }
+    });
+    await page.locator('[data-test="upload-input"]').setInputFiles({ name: 'front.png', mimeType: 'image/png', buffer: png });
+    const row = page.locator('[data-test="upload-row"]').first();
+    await page.locator('[data-test="upload-row"][data-state="failed"]').waitFor();
+    await expect(row.locator('[data-test="upload-status"]').innerText()).resolves.toMatch(/could not reach Saddlestep/);
+    await row.locator('[data-test="upload-retry"]').click();
+    await page.locator('[data-test="upload-row"][data-state="done"]').waitFor();
+
+    // A text file dressed up as a photo is refused by its content, and retrying would not help.
+    await page.locator('[data-test="upload-input"]').setInputFiles({ name: 'holiday.png', mimeType: 'image/png', buffer: Buffer.from('not really a picture, just words\n'.repeat(10)) });
+    const refused = page.locator('[data-test="upload-row"][data-state="failed"]');
+    await refused.waitFor();
+    await expect(refused.locator('[data-test="upload-status"]').innerText()).resolves.toMatch(/whatever its name or type says/);
+    await expect(refused.locator('[data-test="upload-retry"]').count()).resolves.toBe(0);
+    await context.close();
+  });
+
   it('keeps a draft: half an answer saved, then resumed after a reload', async () => {
     const { context, page } = await openPage(session.browser);
     await registerRider(page, 'Kemal Testrider');
