@@ -5,7 +5,6 @@ import express, { type RequestHandler } from 'express';
 import session from 'express-session';
 import connectSessionSequelize from 'connect-session-sequelize';
 import { pinoHttp } from 'pino-http';
-import type { Server as SocketServer } from 'socket.io';
 import type { Sequelize } from 'sequelize';
 import type { Config } from './config';
 import { createLogger, type Logger } from './logger';
@@ -21,6 +20,7 @@ import { createSocketServer } from './socket';
 import { createMailer } from './mail/mailer';
 import { createStripe } from './payments/stripe-client';
 import type { AppContext } from './context';
+import type { AppServer } from './socket/types';
 import { createStripeWebhookHandler } from './controllers/stripe-webhook';
 
 export const SESSION_COOKIE = 'saddlestep.sid';
@@ -28,7 +28,7 @@ export const SESSION_COOKIE = 'saddlestep.sid';
 export interface SaddlestepApp {
   app: express.Express;
   httpServer: HttpServer;
-  io: SocketServer;
+  io: AppServer;
   sequelize: Sequelize;
   logger: Logger;
   ctx: AppContext;
@@ -109,7 +109,7 @@ export function createApp(config: Config, options: { logger?: Logger } = {}): Sa
   app.use(createErrorHandler(logger));
 
   const httpServer = createServer(app);
-  const io = createSocketServer(httpServer, { sessionMiddleware, passport, logger });
+  const io = createSocketServer(httpServer, { sessionMiddleware, passport, ctx });
   ctx.io = io;
 
   let closed = false;

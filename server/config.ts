@@ -34,6 +34,9 @@ const envSchema = z.object({
   AUTH_RATE_WINDOW_SECONDS: z.coerce.number().int().min(1).default(15 * 60),
   /** How often the in-process scheduler looks for due jobs; 0 switches it off in this process. */
   SCHEDULER_INTERVAL_SECONDS: z.coerce.number().int().min(0).max(3600).default(15),
+  /** Chat sends allowed at once per user, and the refill rate per second (token bucket). */
+  CHAT_BURST: z.coerce.number().int().min(1).max(100_000).default(20),
+  CHAT_PER_SECOND: z.coerce.number().min(0.1).max(100_000).default(2),
   /** Where the built client lives; empty disables static serving (API-only tests). */
   CLIENT_DIST: z.string().default('dist'),
 });

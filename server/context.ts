@@ -1,5 +1,5 @@
 import type { Sequelize } from 'sequelize';
-import type { Server as SocketServer } from 'socket.io';
+import type { AppServer } from './socket/types';
 import type Stripe from 'stripe';
 import type { Config } from './config';
 import type { Logger } from './logger';
@@ -17,7 +17,7 @@ export interface AppContext {
   /** null when Stripe is not configured. */
   stripe: Stripe | null;
   /** Set right after the socket server is created; routers read it lazily at request time. */
-  io: SocketServer | null;
+  io: AppServer | null;
   /** Tasks to run on close (timers, schedulers). */
   onClose: (task: () => Promise<void> | void) => void;
 }

@@ -22,6 +22,8 @@ export class Consultation extends Model<InferAttributes<Consultation>, InferCrea
   declare calendarSequence: CreationOptional<number>;
   /** The intake's triage asked for a physio's eye. */
   declare flaggedForPhysio: CreationOptional<boolean>;
+  /** The chat's last sequence number; incremented under a row lock so order holds with many senders. */
+  declare lastMessageSeq: CreationOptional<number>;
   declare cancelledById: number | null;
   declare cancelReason: string | null;
   declare createdAt: CreationOptional<Date>;
@@ -43,6 +45,7 @@ export class Consultation extends Model<InferAttributes<Consultation>, InferCrea
         calendarUid: { type: DataTypes.STRING(80), allowNull: false },
         calendarSequence: { type: DataTypes.INTEGER.UNSIGNED, allowNull: false, defaultValue: 0 },
         flaggedForPhysio: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
+        lastMessageSeq: { type: DataTypes.INTEGER.UNSIGNED, allowNull: false, defaultValue: 0 },
         cancelledById: { type: DataTypes.INTEGER.UNSIGNED, allowNull: true },
         cancelReason: { type: DataTypes.STRING(500), allowNull: true },
         createdAt: DataTypes.DATE,

@@ -19,6 +19,10 @@ import { Refund } from './refund';
 import { StripeEvent } from './stripe-event';
 import { ScheduledJob } from './scheduled-job';
 import { ClinicSettings } from './clinic-settings';
+import { Message } from './message';
+import { ChatCursor } from './chat-cursor';
+
+export { ChatCursor, Message };
 
 export { AuditEntry, ClinicSettings, Consultation, ConsultationEvent, FitterProfile, Payment, PaymentCustomer, Refund, ScheduledJob, Session, StripeEvent, User };
 
@@ -42,6 +46,8 @@ export function initModels(sequelize: Sequelize) {
   StripeEvent.initModel(sequelize);
   ScheduledJob.initModel(sequelize);
   ClinicSettings.initModel(sequelize);
+  Message.initModel(sequelize);
+  ChatCursor.initModel(sequelize);
 
   Session.belongsTo(User, { foreignKey: 'userId', as: 'user' });
   AuditEntry.belongsTo(User, { foreignKey: 'actorId', as: 'actor', constraints: false });

@@ -5,6 +5,7 @@ import { sendReminder } from '../mail/booking-mails';
 import { BOOKING_REMINDER } from '../services/booking-jobs';
 import { expireHolds } from '../services/booking';
 import { createScheduler } from './scheduler';
+import { CHAT_NOTICE, sendChatNotice } from '../services/chat-notices';
 
 /**
  * The scheduler with Saddlestep's job handlers. `sequelize` defaults to the app's pool; tests pass
@@ -19,6 +20,7 @@ export function createAppScheduler(ctx: AppContext, options: { sequelize?: Seque
     periodic: [() => expireHolds(ctx)],
     handlers: {
       /** Never for a cancelled or moved booking: the job re-reads the booking when it runs. */
+      [CHAT_NOTICE]: (payload) => sendChatNotice(ctx, payload),
       [BOOKING_REMINDER]: async (payload) => {
         const consultation = await Consultation.findByPk(Number(payload.consultationId));
         if (!consultation || consultation.status !== 'booked' || consultation.calendarSequence !== Number(payload.sequence)) return;

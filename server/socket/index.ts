@@ -2,13 +2,16 @@ import type { Server as HttpServer, IncomingMessage, ServerResponse } from 'node
 import { Server } from 'socket.io';
 import type { RequestHandler } from 'express';
 import type { AppPassport } from '../auth/passport';
-import type { Logger } from '../logger';
+import type { AppContext } from '../context';
 import { userRoom } from './rooms';
+import { createSendLimiter } from './rate-limit';
+import { registerHandlers } from './handlers';
+import type { AppServer } from './types';
 
 interface SocketDeps {
   sessionMiddleware: RequestHandler;
   passport: AppPassport;
-  logger: Logger;
+  ctx: AppContext;
 }
 
 type EngineMiddleware = (req: IncomingMessage & { _query?: Record<string, string> }, res: ServerResponse, next: (error?: unknown) => void) => void;
@@ -24,17 +27,16 @@ function onlyForHandshake(middleware: RequestHandler): EngineMiddleware {
 
 /**
  * socket.io on the app's own HTTP server, sharing the signed-in session. Anonymous sockets are
- * refused before any event handler runs. Each user joins a private room for personal notices;
- * consultation rooms arrive with the live consultation.
+ * refused before any event handler runs. Each user joins a private room for personal notices, and
+ * consultation rooms on `room:join` after the membership check.
  */
-export function createSocketServer(httpServer: HttpServer, { sessionMiddleware, passport, logger }: SocketDeps): Server {
-  const io = new Server(httpServer, {
+export function createSocketServer(httpServer: HttpServer, { sessionMiddleware, passport, ctx }: SocketDeps): AppServer {
+  const io: AppServer = new Server(httpServer, {
     serveClient: false,
-    maxHttpBufferSize: 1e6,
-    connectionStateRecovery: undefined,
-    // Same origin only: the client is served by this very server.
-    cors: undefined,
+    // Chat messages are small; anything larger is refused before it is parsed.
+    maxHttpBufferSize: 64 * 1024,
   });
+  const sendLimiter = createSendLimiter({ capacity: ctx.config.CHAT_BURST, perSecond: ctx.config.CHAT_PER_SECOND });
 
   io.engine.use(onlyForHandshake(sessionMiddleware));
   io.engine.use(onlyForHandshake(passport.initialize() as unknown as RequestHandler));
@@ -49,12 +51,13 @@ export function createSocketServer(httpServer: HttpServer, { sessionMiddleware, 
     }
     socket.data.userId = user.id;
     socket.data.role = user.role;
+    socket.data.displayName = user.displayName;
     next();
   });
 
   io.on('connection', (socket) => {
-    void socket.join(userRoom(socket.data.userId as number));
-    logger.debug({ userId: socket.data.userId }, 'socket connected');
+    void socket.join(userRoom(socket.data.userId));
+    registerHandlers({ io, socket, ctx, sendLimiter });
   });
 
   return io;

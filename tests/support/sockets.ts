@@ -24,3 +24,14 @@ export function openSocket(baseUrl: string, cookie?: string): Promise<{ socket: 
     socket.once('connect_error', (error) => resolve({ socket, error: error as Error & { data?: unknown } }));
   });
 }
+
+/** The session cookie of a signed-in supertest agent, as a Cookie header for socket.io. */
+export async function cookieOf(client: { get: (url: string) => import('supertest').Test }): Promise<string> {
+  const res = await client.get('/api/auth/me');
+  return ([] as string[]).concat(res.headers['set-cookie'] ?? []).map((c) => c.split(';')[0]).join('; ');
+}
+
+/** emit with an acknowledgement, failing after a timeout instead of hanging the test. */
+export function ask<T = unknown>(socket: Socket, event: string, payload: unknown, timeoutMs = 5000): Promise<T> {
+  return socket.timeout(timeoutMs).emitWithAck(event, payload) as Promise<T>;
+}

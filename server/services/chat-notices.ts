@@ -1,0 +1,43 @@
+import type { AppContext } from '../context';
+import { ChatCursor, Consultation, User } from '../models';
+import { scheduleJob } from '../scheduler/jobs';
+import type { AppServer } from '../socket/types';
+import { isOffline } from '../socket/presence';
+import { renderMail } from '../mail/layout';
+import { publicUrl } from '../mail/booking-mails';
+
+export const CHAT_NOTICE = 'chat-notice';
+/** Messages to an offline person within this window share one e-mail. */
+const BATCH_MS = 10 * 60_000;
+/** Wait a little before mailing, in case they come back online and read it. */
+const DELAY_MS = 2 * 60_000;
+
+/** Schedule one batched e-mail notice per offline recipient per window (never one per message). */
+export async function noticeOfflineRecipients(ctx: AppContext, io: AppServer, consultation: Consultation, senderId: number) {
+  const recipients = [consultation.riderId, consultation.fitterId].filter((id) => id !== senderId);
+  for (const userId of recipients) {
+    if (!(await isOffline(io, userId))) continue;
+    const bucket = Math.floor(Date.now() / BATCH_MS);
+    await scheduleJob({
+      kind: CHAT_NOTICE,
+      uniqueKey: `${CHAT_NOTICE}:${consultation.id}:${userId}:${bucket}`,
+      runAt: new Date(Date.now() + DELAY_MS),
+      payload: { consultationId: consultation.id, userId },
+    });
+  }
+}
+
+/** The job: mail only if there is still something unread. The e-mail holds no message text. */
+export async function sendChatNotice(ctx: AppContext, payload: Record<string, unknown>) {
+  const consultation = await Consultation.findByPk(Number(payload.consultationId));
+  const user = await User.findByPk(Number(payload.userId));
+  if (!consultation || !user || user.status !== 'active') return;
+  const cursor = await ChatCursor.findOne({ where: { consultationId: consultation.id, userId: user.id } });
+  if ((cursor?.readSeq ?? 0) >= consultation.lastMessageSeq) return;
+  const mail = renderMail({
+    subject: 'New messages in your Saddlestep consultation',
+    paragraphs: [`Hello ${user.displayName},`, 'You have unread messages in a consultation. For your privacy we do not put them in e-mail; open Saddlestep to read them.'],
+    action: { label: 'Read your messages', url: `${publicUrl(ctx)}/consultations/${consultation.id}/room` },
+  });
+  await ctx.mailer.send({ to: user.email, ...mail });
+}

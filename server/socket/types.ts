@@ -1,0 +1,21 @@
+import type { Server, Socket } from 'socket.io';
+import type { ClientToServerEvents, ServerToClientEvents } from '@shared/chat';
+import type { AppContext } from '../context';
+import type { SendLimiter } from './rate-limit';
+
+export interface SocketData {
+  userId: number;
+  role: string;
+  displayName: string;
+}
+
+export type AppServer = Server<ClientToServerEvents, ServerToClientEvents, Record<string, never>, SocketData>;
+export type AppSocket = Socket<ClientToServerEvents, ServerToClientEvents, Record<string, never>, SocketData>;
+
+/** What every event handler factory receives. */
+export interface HandlerDeps {
+  io: AppServer;
+  socket: AppSocket;
+  ctx: AppContext;
+  sendLimiter: SendLimiter;
+}
