@@ -12,7 +12,7 @@ const body = z
   .string({ error: 'A message is text.' })
   .max(MESSAGE_MAX_CHARS, `A message can be at most ${MESSAGE_MAX_CHARS} characters.`)
   // Control characters other than tab and new line would corrupt the thread and the e-mail notice.
-  .refine((text) => !/[\u0000-\u0008\u000B\u000C\u000E-\u001F\u007F]/.test(text), 'A message cannot contain control characters.');
+  .refine((text) => !/[^\P{Cc}\t\n\r]/u.test(text), 'A message cannot contain control characters.');
 
 export const joinRoomSchema = z.strictObject({
   consultationId,
