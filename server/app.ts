@@ -137,6 +137,7 @@ function serveClient(app: express.Express, config: Config) {
   app.get(/^(?!\/api\/|\/socket\.io\/).*/, (_req, res, next) => {
     if (!fs.existsSync(index)) return next();
     res.setHeader('Cache-Control', 'no-cache');
-    res.sendFile(index);
+    // `dotfiles: 'allow'` because the project folder itself may sit under a dot-folder.
+    res.sendFile(index, { dotfiles: 'allow' });
   });
 }

@@ -8,6 +8,9 @@ import { recordAudit, type AuditActor } from './audit';
 import { scheduleBookingReminder } from './booking-jobs';
 import { sendBookingConfirmation, sendReceipt } from '../mail/booking-mails';
 
+/** A pending attempt untouched this long is treated as abandoned (its page was closed or reloaded). */
+const ABANDONED_AFTER_MS = 2 * 60_000;
+
 /** Grace added to a hold when payment starts, so a slow card network cannot lose a paid slot. */
 const PAYMENT_GRACE_MS = 5 * 60_000;
 
@@ -32,7 +35,9 @@ async function beginAttempt(ctx: AppContext, rider: User, consultationId: number
     if (same?.status === 'succeeded' || same?.status === 'failed') return { consultation, payment: same, settled: true };
     const other = await Payment.findOne({ where: { consultationId: consultation.id, status: { [Op.in]: ['pending', 'succeeded'] }, attemptKey: { [Op.ne]: attemptKey } }, transaction });
     if (other?.status === 'succeeded') throw conflict('This booking is already paid.');
-    if (other) throw conflict('A payment for this booking is already in progress. Wait a moment and reload the page.');
+    if (other && Date.now() - other.updatedAt.getTime() < ABANDONED_AFTER_MS) throw conflict('A payment for this booking is already in progress. Wait a moment and reload the page.');
+    // An attempt left pending by a lost connection long ago is given up, so a reloaded page can pay.
+    if (other) await other.update({ status: 'failed', failureMessage: 'abandoned attempt' }, { transaction });
     if (!['requested', 'awaiting_payment'].includes(consultation.status)) throw conflict('This booking can no longer be paid. Please choose a time again.');
     const now = Date.now();
     if (!consultation.holdExpiresAt || consultation.holdExpiresAt.getTime() <= now) {
@@ -96,18 +101,24 @@ function cardRefused(message: string | null) {
   return new AppError(402, 'card_declined', `${message ?? 'Your card was declined.'} We released the time we held; please choose a time and try again with another card.`);
 }
 
-/** A refused card releases the hold; a Stripe outage keeps it so the rider can retry. */
+/**
+ * A refused card releases the hold. A Stripe outage keeps both the hold and the attempt pending,
+ * so a retry with the same attempt key re-sends the same idempotent Stripe calls (never a second charge).
+ */
 async function failAttempt(ctx: AppContext, rider: User, consultationId: number, paymentId: number, error: unknown): Promise<never> {
   const declined = error instanceof Stripe.errors.StripeCardError;
   const message = declined ? (error as Stripe.errors.StripeCardError).message : null;
+  if (!declined) {
+    ctx.logger.error({ err: error }, 'Stripe call failed');
+    await Payment.update({ failureMessage: 'payment service unavailable; retry pending' }, { where: { id: paymentId } });
+    throw new AppError(502, 'payment_unavailable', 'We could not reach the payment service. Nothing was charged twice; please try again in a moment.');
+  }
   await ctx.sequelize.transaction(async (transaction) => {
     const consultation = await Consultation.findByPk(consultationId, { transaction, lock: transaction.LOCK.UPDATE });
     await Payment.update({ status: 'failed', failureMessage: (message ?? 'payment service unavailable').slice(0, 300) }, { where: { id: paymentId }, transaction });
     if (consultation?.status === 'awaiting_payment') {
-      await transitionConsultation(ctx, consultation, declined ? 'cancelled' : 'requested', { actorId: rider.id, note: declined ? 'card declined' : 'payment service error', transaction, changes: declined ? { cancelReason: 'card declined', holdExpiresAt: null } : {} });
+      await transitionConsultation(ctx, consultation, 'cancelled', { actorId: rider.id, note: 'card declined', transaction, changes: { cancelReason: 'card declined', holdExpiresAt: null } });
     }
   });
-  if (declined) throw cardRefused(message);
-  ctx.logger.error({ err: error }, 'Stripe call failed');
-  throw new AppError(502, 'payment_unavailable', 'We could not reach the payment service. Nothing was charged; please try again in a moment.');
+  throw cardRefused(message);
 }

@@ -142,6 +142,19 @@ describe('POST /api/consultations/:id/payment', () => {
     await other.post('/api/consultations', { fitterId: fitter.id, startsAt }).expect(201);
   });
 
+  it('keeps the hold and the attempt retryable when the payment service is unavailable', async () => {
+    const { rider, id } = await held();
+    const attemptKey = randomUUID();
+    // The Stripe fake answers tok_429 with a rate-limit error, standing in for an outage.
+    const first = await rider.post(`/api/consultations/${id}/payment`, { token: 'tok_429', attemptKey });
+    expect(first.status).toBe(502);
+    expect(first.body.error.message).toMatch(/try again/);
+    const retry = await rider.post(`/api/consultations/${id}/payment`, { token: 'tok_429', attemptKey });
+    expect(retry.status).toBe(502);
+    expect((await Consultation.findByPk(id))!.status).toBe('awaiting_payment');
+    expect(await Payment.count({ where: { consultationId: id } })).toBe(1);
+  });
+
   it('charges once for a retried or double-clicked payment with the same attempt key', async () => {
     const { rider, id } = await held();
     const attemptKey = randomUUID();
