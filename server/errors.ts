@@ -10,13 +10,15 @@ export class AppError extends Error {
     readonly code: ErrorCode,
     message: string,
     readonly fields?: Record<string, string>,
+    /** Extra structured detail a client can act on, e.g. the plan's `violations`. */
+    readonly extra?: Record<string, unknown>,
   ) {
     super(message);
     this.name = 'AppError';
   }
 
   toBody(): ApiErrorBody {
-    return { error: { code: this.code, message: this.message, ...(this.fields ? { fields: this.fields } : {}) } };
+    return { error: { code: this.code, message: this.message, ...(this.fields ? { fields: this.fields } : {}), ...this.extra } };
   }
 }
 

@@ -80,7 +80,7 @@ try {
     await server.close();
     await stopServices();
   };
-  const seeded = await seedDemo(createPasswordHasher(config.BCRYPT_COST));
+  const seeded = await seedDemo(server.ctx, createPasswordHasher(config.BCRYPT_COST));
 
   if (devMode) {
     const { createServer } = await import('vite');

@@ -78,7 +78,7 @@ try {
   const { createPasswordHasher } = await import('../../server/services/passwords');
   const config = loadConfig();
   const server = await startServer(config);
-  await seedDemo(createPasswordHasher(config.BCRYPT_COST));
+  await seedDemo(server.ctx, createPasswordHasher(config.BCRYPT_COST));
   const stopServices = cleanup;
   cleanup = async () => {
     await server.close();

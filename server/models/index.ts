@@ -22,7 +22,12 @@ import { ClinicSettings } from './clinic-settings';
 import { Message } from './message';
 import { ChatCursor } from './chat-cursor';
 
-export { ChatCursor, Message };
+import { Plan } from './plan';
+import { PlanStep } from './plan-step';
+import { FitterNote } from './fitter-note';
+import { PhotoMeasurement } from './photo-measurement';
+
+export { ChatCursor, FitterNote, Message, PhotoMeasurement, Plan, PlanStep };
 
 export { AuditEntry, ClinicSettings, Consultation, ConsultationEvent, FitterProfile, Payment, PaymentCustomer, Refund, ScheduledJob, Session, StripeEvent, User };
 
@@ -48,6 +53,11 @@ export function initModels(sequelize: Sequelize) {
   ClinicSettings.initModel(sequelize);
   Message.initModel(sequelize);
   ChatCursor.initModel(sequelize);
+  Plan.initModel(sequelize);
+  PlanStep.initModel(sequelize);
+  FitterNote.initModel(sequelize);
+  PhotoMeasurement.initModel(sequelize);
+  Plan.hasMany(PlanStep, { foreignKey: 'planId', as: 'stepRows' });
 
   Session.belongsTo(User, { foreignKey: 'userId', as: 'user' });
   AuditEntry.belongsTo(User, { foreignKey: 'actorId', as: 'actor', constraints: false });

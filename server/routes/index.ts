@@ -9,6 +9,7 @@ import { createAdminAccountsController } from '../controllers/admin-accounts';
 import type { AppContext } from '../context';
 import { createRiderJourneyRouter } from './rider-journey';
 import { createBookingRouter } from './booking';
+import { createConsultationRoomRouter } from './consultation-room';
 
 interface RouteDeps {
   auth: ReturnType<typeof createAuthController>;
@@ -43,6 +44,7 @@ export function createApiRouter(ctx: AppContext, { auth, authRateLimit, health }
   // Feature routers (one file each in server/routes/) are mounted here, before the 404.
   api.use(createRiderJourneyRouter(ctx));
   api.use(createBookingRouter(ctx));
+  api.use(createConsultationRoomRouter(ctx));
 
   api.use(apiNotFound);
   return api;

@@ -6,6 +6,7 @@ import { BOOKING_REMINDER } from '../services/booking-jobs';
 import { expireHolds } from '../services/booking';
 import { createScheduler } from './scheduler';
 import { CHAT_NOTICE, sendChatNotice } from '../services/chat-notices';
+import { CHECKIN_DUE, CHECKIN_OVERDUE, markCheckInOverdue, remindCheckIn } from '../services/follow-up-jobs';
 
 /**
  * The scheduler with Saddlestep's job handlers. `sequelize` defaults to the app's pool; tests pass
@@ -21,6 +22,8 @@ export function createAppScheduler(ctx: AppContext, options: { sequelize?: Seque
     handlers: {
       /** Never for a cancelled or moved booking: the job re-reads the booking when it runs. */
       [CHAT_NOTICE]: (payload) => sendChatNotice(ctx, payload),
+      [CHECKIN_DUE]: (payload) => remindCheckIn(ctx, payload),
+      [CHECKIN_OVERDUE]: (payload) => markCheckInOverdue(ctx, payload),
       [BOOKING_REMINDER]: async (payload) => {
         const consultation = await Consultation.findByPk(Number(payload.consultationId));
         if (!consultation || consultation.status !== 'booked' || consultation.calendarSequence !== Number(payload.sequence)) return;

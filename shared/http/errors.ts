@@ -10,6 +10,8 @@ export interface ApiErrorBody {
     message: string;
     /** Per-field messages for forms, keyed by the field path (`address.city`). */
     fields?: Record<string, string>;
+    /** Structured detail for some errors, e.g. a refused plan's `violations`. */
+    [detail: string]: unknown;
   };
 }
 

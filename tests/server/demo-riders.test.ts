@@ -29,9 +29,9 @@ async function counts() {
 describe('the demo riders', () => {
   it('each have a profile and a bike with a baseline; Ben has a submitted knee intake; seeding twice adds nothing', async () => {
     const hasher = createPasswordHasher(10);
-    await seedDemo(hasher);
+    await seedDemo(saddlestep.ctx, hasher);
     const first = await counts();
-    await seedDemo(hasher);
+    await seedDemo(saddlestep.ctx, hasher);
     expect(await counts()).toEqual(first);
     expect(first.profiles).toBe(3);
     expect(first.bikes).toBeGreaterThanOrEqual(3);

@@ -1,0 +1,63 @@
+import type { PlanInput, PhysioLimits, RiddenSetup } from '@shared/fit/planner';
+import { conflict, notFound } from '../errors';
+import { Bike, type Consultation, type SetupSnapshot } from '../models';
+import { getClinicSettings } from './clinic-settings';
+import { latestSubmitted } from './intakes';
+import { listSnapshots } from './setup-history';
+
+export const todayUtc = () => new Date().toISOString().slice(0, 10);
+
+/**
+ * Setups the rider has ridden, for the revert rule. Each snapshot was ridden from its date until
+ * the next one. Rides are only known for the long-standing baseline (the rider's own setup, taken
+ * as well ridden); later setups count rides once check-ins log them, so they are never assumed.
+ */
+export function riddenHistory(snapshots: SetupSnapshot[], adaptationRides: number, ridesBySnapshot: Map<number, number> = new Map()): RiddenSetup[] {
+  return snapshots.slice(0, -1).map((snapshot, i) => ({
+    setup: snapshot.setup,
+    from: snapshot.takenOn,
+    to: snapshots[i + 1]!.takenOn,
+    rides: ridesBySnapshot.get(snapshot.id) ?? (snapshot.source === 'baseline' ? adaptationRides : 0),
+  }));
+}
+
+/** The worst pain in the rider's latest answers, 0–10. */
+async function currentPain(riderId: number): Promise<{ pain: number; level: PlanInput['redFlagLevel'] }> {
+  const intake = await latestSubmitted(riderId);
+  const pain = Math.max(0, ...(intake?.symptoms ?? []).map((s) => s.pain ?? 0));
+  return { pain, level: intake?.triageLevel ?? 'none' };
+}
+
+/** Limits a physio set on this rider (filled in by the referral loop). */
+export async function physioLimitsFor(_riderId: number): Promise<PhysioLimits | undefined> {
+  return undefined;
+}
+
+/**
+ * Everything the planner needs, built on the server from stored facts only: the bike's current
+ * setup, the clinic's policy, the rider's pain and red flags, physio limits and ridden history.
+ * The client previews with the same inputs; the server re-checks a sent plan against these.
+ */
+export async function buildPlanInputs(consultation: Consultation, bikeId: number, options: { target?: PlanInput['target']; startDate?: string } = {}) {
+  const bike = await Bike.findOne({ where: { id: bikeId, riderId: consultation.riderId } });
+  if (!bike) throw notFound('That bike');
+  const snapshots = await listSnapshots(bike.id);
+  const current = snapshots[snapshots.length - 1];
+  if (!current) throw conflict('This bike has no recorded setup yet. Ask the rider to record it first.');
+  const settings = await getClinicSettings();
+  const { pain, level } = await currentPain(consultation.riderId);
+  const physio = await physioLimitsFor(consultation.riderId);
+  const today = todayUtc();
+  const startDate = options.startDate && options.startDate > today ? options.startDate : today;
+  const inputs: PlanInput & { startDate: string } = {
+    baseline: current.setup,
+    target: options.target ?? current.setup,
+    policy: settings.planner,
+    currentPain: pain,
+    redFlagLevel: level,
+    ...(physio ? { physio } : {}),
+    startDate,
+    history: riddenHistory(snapshots, settings.planner.adaptationRides),
+  };
+  return { bike, snapshots, current, inputs };
+}

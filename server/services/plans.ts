@@ -1,0 +1,163 @@
+import { Op, type Transaction } from 'sequelize';
+import { randomUUID } from 'node:crypto';
+import { buildPlan, validatePlan, type PlanInput, type Plan as PlanBody } from '@shared/fit/planner';
+import { addDays } from '@shared/fit/setup';
+import { AppError, conflict, notFound, badRequest } from '../errors';
+import { Consultation, Plan, PlanStep, SetupSnapshot } from '../models';
+import type { AppContext } from '../context';
+import { transitionConsultation } from './consultation-states';
+import { buildPlanInputs, todayUtc } from './plan-inputs';
+import { recordSnapshot } from './setup-history';
+import { recordAudit, type AuditActor } from './audit';
+import { postMessage } from './chat';
+import { consultationRoom } from '../socket/rooms';
+import { scheduleCheckInJobs } from './follow-up-jobs';
+
+/** States in which a fitter may send a plan. */
+const PLANNING_STATES = ['booked', 'in_session', 'plan_active'] as const;
+
+/** Create the step rows for a stored plan: step 1 is current, the rest wait their turn. */
+async function createStepRows(plan: Plan, body: PlanBody, transaction: Transaction) {
+  await PlanStep.bulkCreate(
+    body.steps.map((step, i) => ({
+      planId: plan.id,
+      stepIndex: step.index,
+      state: i === 0 ? 'current' : 'locked',
+      earliestDate: step.earliestDate,
+      minRides: step.minRides,
+      appliedOn: null,
+      checkInDue: null,
+      checkedInAt: null,
+      overdueAt: null,
+      snapshotId: null,
+    })) as never[],
+    { transaction },
+  );
+}
+
+/** Supersede the rider's active plan for this bike (a new plan or a revert replaces it). */
+async function supersedeActive(riderId: number, bikeId: number, transaction: Transaction) {
+  await Plan.update({ status: 'superseded' }, { where: { riderId, bikeId, status: { [Op.in]: ['active', 'on_hold'] } }, transaction });
+}
+
+/** Post the plan card into the consultation's chat and tell the room. */
+async function announcePlan(ctx: AppContext, consultation: Consultation, plan: Plan, senderId: number) {
+  const steps = plan.plan.steps.length;
+  const body = plan.kind === 'revert' ? 'A plan to go back to an earlier setup.' : `A new plan with ${steps} step${steps === 1 ? '' : 's'}.`;
+  const { message } = await postMessage(ctx, { id: senderId }, consultation, { clientId: randomUUID(), body, kind: 'plan', planId: plan.id });
+  ctx.io?.to(consultationRoom(consultation.id)).emit('message:created', message);
+}
+
+/**
+ * Store a plan the fitter sends. The server rebuilds the planner inputs from stored facts and
+ * checks the sent plan with the shared `validatePlan`; any violation (over a cap, a window, a
+ * physio limit, broken coupling, a plan that should have been refused) refuses the whole plan.
+ */
+export async function sendPlan(ctx: AppContext, fitter: Express.User, consultationId: number, input: { bikeId: number; target: PlanInput['target']; startDate?: string; plan: unknown }, actor: AuditActor) {
+  const consultation = await Consultation.findOne({ where: { id: consultationId, fitterId: fitter.id } });
+  if (!consultation) throw notFound('That consultation');
+  if (!(PLANNING_STATES as readonly string[]).includes(consultation.status)) throw conflict('A plan can be sent once the session is booked, and not while the plan is paused.');
+  const { inputs } = await buildPlanInputs(consultation, input.bikeId, { target: input.target, startDate: input.startDate });
+  const violations = validatePlan(input.plan, inputs);
+  if (violations.length > 0) {
+    throw new AppError(422, 'plan_over_limits', `The plan breaks ${violations.length} safety rule${violations.length === 1 ? '' : 's'}; nothing was sent.`, undefined, { violations });
+  }
+  const body = input.plan as PlanBody;
+  if (body.status === 'refused' || body.steps.length === 0) throw conflict(body.reasons[0]?.message ?? 'This plan has no steps to send.');
+
+  const plan = await ctx.sequelize.transaction(async (transaction) => {
+    const locked = await Consultation.findByPk(consultation.id, { transaction, lock: transaction.LOCK.UPDATE });
+    if (locked!.status === 'booked') await transitionConsultation(ctx, locked!, 'in_session', { actorId: fitter.id, note: 'plan sent', transaction });
+    if (locked!.status === 'in_session') await transitionConsultation(ctx, locked!, 'plan_active', { actorId: fitter.id, note: 'plan sent', transaction });
+    await supersedeActive(consultation.riderId, input.bikeId, transaction);
+    const stored = await Plan.create(
+      { consultationId: consultation.id, riderId: consultation.riderId, fitterId: fitter.id, bikeId: input.bikeId, kind: 'forward', status: 'active', plan: body, inputs, holdReason: null },
+      { transaction },
+    );
+    await createStepRows(stored, body, transaction);
+    await recordAudit(actor, { action: 'plan.create', subjectType: 'plan', subjectId: stored.id, subjectUserId: consultation.riderId }, { transaction });
+    return stored;
+  });
+  await announcePlan(ctx, consultation, plan, fitter.id);
+  return plan;
+}
+
+/** The plan a rider or the assigned fitter may see, or 404. */
+export async function findVisiblePlan(user: Express.User, planId: number): Promise<Plan> {
+  const plan = await Plan.findByPk(planId);
+  if (!plan || (plan.riderId !== user.id && plan.fitterId !== user.id)) throw notFound('That plan');
+  return plan;
+}
+
+/**
+ * The rider marks a step as made on a date. That starts the adaptation clock: the check-in is due
+ * after the adaptation period, and the next step's earliest date moves if this one was late.
+ * A new setup snapshot records what is on the bike now, so the history stays complete.
+ */
+export async function applyStep(ctx: AppContext, rider: Express.User, planId: number, stepIndex: number, appliedOn: string, actor: AuditActor) {
+  return ctx.sequelize.transaction(async (transaction) => {
+    const plan = await Plan.findOne({ where: { id: planId, riderId: rider.id }, transaction, lock: transaction.LOCK.UPDATE });
+    if (!plan) throw notFound('That plan');
+    if (plan.status === 'on_hold') throw conflict(`This plan is paused: ${plan.holdReason ?? 'a clinician asked to wait'}. No step can be made until the hold is cleared.`);
+    if (plan.status !== 'active') throw conflict('This plan has been replaced or finished.');
+    const row = await PlanStep.findOne({ where: { planId, stepIndex }, transaction });
+    const step = plan.plan.steps.find((s) => s.index === stepIndex);
+    if (!row || !step) throw notFound('That step');
+    if (row.state === 'applied') throw conflict('You already marked this step as made.');
+    if (row.state !== 'current') throw conflict('Make the steps in order: finish the current step first.');
+    if (appliedOn < row.earliestDate) throw badRequest(`This step can be made from ${row.earliestDate}, after the adaptation period.`, { appliedOn: `Choose ${row.earliestDate} or later.` });
+    if (appliedOn > todayUtc()) throw badRequest('The date cannot be in the future.', { appliedOn: 'Choose today or an earlier day.' });
+
+    const adaptationDays = plan.plan.limits.adaptationDays;
+    const snapshot = await recordSnapshot(plan.bikeId, step.setupAfter, plan.kind === 'revert' ? 'revert' : 'step', rider.id, {
+      stepId: row.id,
+      takenOn: appliedOn,
+      transaction,
+      ...(plan.kind === 'revert' ? { basedOnSnapshotId: revertSourceId(plan) } : {}),
+    });
+    await row.update({ state: 'applied', appliedOn, checkInDue: addDays(appliedOn, adaptationDays), snapshotId: snapshot.id }, { transaction });
+    const next = await PlanStep.findOne({ where: { planId, stepIndex: stepIndex + 1 }, transaction });
+    if (next) {
+      const earliest = addDays(appliedOn, adaptationDays);
+      await next.update({ state: 'current', earliestDate: earliest > next.earliestDate ? earliest : next.earliestDate }, { transaction });
+    } else {
+      await plan.update({ status: 'completed' }, { transaction });
+    }
+    await scheduleCheckInJobs(plan, row, transaction);
+    await recordAudit(actor, { action: 'plan.step_applied', subjectType: 'plan', subjectId: plan.id, subjectUserId: rider.id, detail: { stepIndex, appliedOn } }, { transaction });
+    return plan;
+  });
+}
+
+function revertSourceId(plan: Plan): number {
+  return Number((plan.inputs as { revertToSnapshotId?: number }).revertToSnapshotId);
+}
+
+/**
+ * Go back to an earlier setup of the bike. The shared planner decides how: in one step when the
+ * rider rode that setup long enough and recently (the body knows it), otherwise capped like any
+ * change. The revert plan replaces the active plan and is announced in the consultation.
+ */
+export async function revertToSnapshot(ctx: AppContext, rider: Express.User, bikeId: number, snapshotId: number, actor: AuditActor) {
+  const snapshot = await SetupSnapshot.findOne({ where: { id: snapshotId, bikeId } });
+  const consultation = await Consultation.findOne({ where: { riderId: rider.id, status: { [Op.in]: ['booked', 'in_session', 'plan_active', 'on_hold', 'completed'] } }, order: [['startsAt', 'DESC']] });
+  if (!snapshot || !consultation) throw notFound('That setup');
+  const active = await Plan.findOne({ where: { riderId: rider.id, bikeId, status: 'on_hold' } });
+  if (active) throw conflict(`Your plan is paused: ${active.holdReason ?? 'a clinician asked to wait'}. Please talk to your fitter before changing the bike.`);
+  const { inputs, current } = await buildPlanInputs(consultation, bikeId, { target: snapshot.setup });
+  if (current.id === snapshot.id) throw badRequest('That is the setup on the bike now.');
+  const body = buildPlan(inputs);
+  if (body.status === 'refused' || body.steps.length === 0) throw conflict(body.reasons[0]?.message ?? 'That setup cannot be reached safely right now.');
+  const plan = await ctx.sequelize.transaction(async (transaction) => {
+    await supersedeActive(rider.id, bikeId, transaction);
+    const stored = await Plan.create(
+      { consultationId: consultation.id, riderId: rider.id, fitterId: consultation.fitterId, bikeId, kind: 'revert', status: 'active', plan: body, inputs: { ...inputs, revertToSnapshotId: snapshot.id } as PlanInput, holdReason: null },
+      { transaction },
+    );
+    await createStepRows(stored, body, transaction);
+    await recordAudit(actor, { action: 'plan.revert', subjectType: 'plan', subjectId: stored.id, subjectUserId: rider.id, detail: { snapshotId } }, { transaction });
+    return stored;
+  });
+  await announcePlan(ctx, consultation, plan, rider.id);
+  return plan;
+}
