@@ -1,0 +1,2 @@
+export * from './check-ins';
+export * from './referrals';
