@@ -28,6 +28,8 @@ export default defineConfig({
     },
   },
   test: {
+    // Server and browser tests mostly wait on MariaDB and Chromium, so more workers than cores pay off.
+    maxWorkers: 4,
     projects: [
       {
         resolve: { alias },

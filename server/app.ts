@@ -21,6 +21,7 @@ import { createMailer } from './mail/mailer';
 import { createStripe } from './payments/stripe-client';
 import type { AppContext } from './context';
 import type { AppServer } from './socket/types';
+import { createKeyedSequencer } from './socket/sequencer';
 import { createStripeWebhookHandler } from './controllers/stripe-webhook';
 
 export const SESSION_COOKIE = 'saddlestep.sid';
@@ -78,6 +79,7 @@ export function createApp(config: Config, options: { logger?: Logger } = {}): Sa
     mailer: createMailer(config, logger),
     stripe: createStripe(config),
     io: null,
+    runInOrder: createKeyedSequencer(),
     onClose: (task) => closeTasks.push(task),
   };
 

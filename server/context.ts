@@ -1,5 +1,6 @@
 import type { Sequelize } from 'sequelize';
 import type { AppServer } from './socket/types';
+import type { RunInOrder } from './socket/sequencer';
 import type Stripe from 'stripe';
 import type { Config } from './config';
 import type { Logger } from './logger';
@@ -18,6 +19,8 @@ export interface AppContext {
   stripe: Stripe | null;
   /** Set right after the socket server is created; routers read it lazily at request time. */
   io: AppServer | null;
+  /** Serialises work per key, e.g. storing and broadcasting one consultation's chat messages. */
+  runInOrder: RunInOrder;
   /** Tasks to run on close (timers, schedulers). */
   onClose: (task: () => Promise<void> | void) => void;
 }

@@ -27,7 +27,10 @@ import { PlanStep } from './plan-step';
 import { FitterNote } from './fitter-note';
 import { PhotoMeasurement } from './photo-measurement';
 
-export { ChatCursor, FitterNote, Message, PhotoMeasurement, Plan, PlanStep };
+import { CheckIn } from './check-in';
+import { Referral } from './referral';
+
+export { ChatCursor, CheckIn, FitterNote, Message, PhotoMeasurement, Plan, PlanStep, Referral };
 
 export { AuditEntry, ClinicSettings, Consultation, ConsultationEvent, FitterProfile, Payment, PaymentCustomer, Refund, ScheduledJob, Session, StripeEvent, User };
 
@@ -57,6 +60,8 @@ export function initModels(sequelize: Sequelize) {
   PlanStep.initModel(sequelize);
   FitterNote.initModel(sequelize);
   PhotoMeasurement.initModel(sequelize);
+  CheckIn.initModel(sequelize);
+  Referral.initModel(sequelize);
   Plan.hasMany(PlanStep, { foreignKey: 'planId', as: 'stepRows' });
 
   Session.belongsTo(User, { foreignKey: 'userId', as: 'user' });

@@ -10,6 +10,7 @@ import type { AppContext } from '../context';
 import { createRiderJourneyRouter } from './rider-journey';
 import { createBookingRouter } from './booking';
 import { createConsultationRoomRouter } from './consultation-room';
+import { createCareRouter } from './care';
 
 interface RouteDeps {
   auth: ReturnType<typeof createAuthController>;
@@ -45,6 +46,7 @@ export function createApiRouter(ctx: AppContext, { auth, authRateLimit, health }
   api.use(createRiderJourneyRouter(ctx));
   api.use(createBookingRouter(ctx));
   api.use(createConsultationRoomRouter(ctx));
+  api.use(createCareRouter(ctx));
 
   api.use(apiNotFound);
   return api;

@@ -6,6 +6,7 @@ import { BOOKING_REMINDER } from '../services/booking-jobs';
 import { expireHolds } from '../services/booking';
 import { createScheduler } from './scheduler';
 import { CHAT_NOTICE, sendChatNotice } from '../services/chat-notices';
+import { REFERRAL_ESCALATE, escalateReferral } from '../services/referral-notices';
 import { CHECKIN_DUE, CHECKIN_OVERDUE, markCheckInOverdue, remindCheckIn } from '../services/follow-up-jobs';
 
 /**
@@ -22,6 +23,7 @@ export function createAppScheduler(ctx: AppContext, options: { sequelize?: Seque
     handlers: {
       /** Never for a cancelled or moved booking: the job re-reads the booking when it runs. */
       [CHAT_NOTICE]: (payload) => sendChatNotice(ctx, payload),
+      [REFERRAL_ESCALATE]: (payload) => escalateReferral(ctx, payload),
       [CHECKIN_DUE]: (payload) => remindCheckIn(ctx, payload),
       [CHECKIN_OVERDUE]: (payload) => markCheckInOverdue(ctx, payload),
       [BOOKING_REMINDER]: async (payload) => {

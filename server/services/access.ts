@@ -1,6 +1,7 @@
 import { Op } from 'sequelize';
 import { CARE_STATES } from '@shared/consultation';
-import { Consultation } from '../models';
+import { Consent, Consultation, Referral } from '../models';
+import { PHYSIO_ACCESS_STATUSES } from './referral-states';
 
 /** The relation between a signed-in user and a rider whose health data they ask for. */
 export type HealthDataRelation = 'owner' | 'assigned-fitter' | 'referred-physio' | 'admin-no-access' | 'unrelated';
@@ -29,7 +30,28 @@ export async function mayReadHealthData(user: Express.User, riderId: number): Pr
   return relation === 'owner' || relation === 'assigned-fitter' || relation === 'referred-physio';
 }
 
-/** Referrals arrive with the physio loop; until then no physio has access. */
-async function physioHasConsentedReferral(_physioId: number, _riderId: number): Promise<boolean> {
+/** An accepted (or answered) referral to this physio whose share consent has not been withdrawn. */
+export async function physioHasConsentedReferral(physioId: number, riderId: number): Promise<boolean> {
+  const referrals = await Referral.findAll({ where: { physioId, riderId, status: { [Op.in]: [...PHYSIO_ACCESS_STATUSES] }, consentId: { [Op.ne]: null } } });
+  for (const referral of referrals) {
+    const consent = await Consent.findByPk(referral.consentId!);
+    if (consent && !consent.withdrawnAt) return true;
+  }
+  return false;
+}
+
+/**
+ * Uploads are narrower for physios: only the files the fitter chose to share on a referral the
+ * physio may open. Riders and assigned fitters see all of the rider's files.
+ */
+export async function mayReadUpload(user: Express.User, upload: { id: number; riderId: number }): Promise<boolean> {
+  const relation = await relationToRider(user, upload.riderId);
+  if (relation === 'owner' || relation === 'assigned-fitter') return true;
+  if (relation !== 'referred-physio') return false;
+  const referrals = await Referral.findAll({ where: { physioId: user.id, riderId: upload.riderId, status: { [Op.in]: [...PHYSIO_ACCESS_STATUSES] } } });
+  for (const referral of referrals) {
+    const consent = referral.consentId ? await Consent.findByPk(referral.consentId) : null;
+    if (consent && !consent.withdrawnAt && referral.attachmentIds.includes(upload.id)) return true;
+  }
   return false;
 }

@@ -2,8 +2,9 @@ import { Op, UniqueConstraintError } from 'sequelize';
 import { CARE_STATES } from '@shared/consultation';
 import { HISTORY_PAGE_MAX, type ChatMessage, type ChatCursor as CursorView } from '@shared/chat';
 import { badRequest, notFound } from '../errors';
-import { ChatCursor, Consultation, Message, Upload, User } from '../models';
+import { ChatCursor, Consultation, Message, Referral, Upload, User } from '../models';
 import type { AppContext } from '../context';
+import { physioHasConsentedReferral } from './access';
 
 /** Who may take part in a consultation's chat; everyone else is told it does not exist. */
 export async function chatMembership(user: { id: number; role: string }, consultationId: number): Promise<Consultation> {
@@ -13,9 +14,9 @@ export async function chatMembership(user: { id: number; role: string }, consult
   return consultation;
 }
 
-/** Physios join through an accepted, consented referral (arrives with the referral loop). */
-async function isReferredPhysio(user: { id: number; role: string }, _consultation: Consultation): Promise<boolean> {
-  return user.role === 'physio' && false;
+/** Physios join as a third party through an accepted referral the rider consented to. */
+async function isReferredPhysio(user: { id: number; role: string }, consultation: Consultation): Promise<boolean> {
+  return user.role === 'physio' && (await physioHasConsentedReferral(user.id, consultation.riderId));
 }
 
 export function presentMessage(message: Message, attachment?: Upload | null): ChatMessage {
@@ -110,6 +111,7 @@ export async function cursorsOf(consultationId: number): Promise<CursorView[]> {
 }
 
 export async function participantsOf(consultation: Consultation) {
-  const users = await User.findAll({ where: { id: { [Op.in]: [consultation.riderId, consultation.fitterId] } }, attributes: ['id', 'displayName', 'role'] });
+  const physioIds = (await Referral.findAll({ where: { consultationId: consultation.id, physioId: { [Op.ne]: null }, status: { [Op.in]: ['accepted', 'in_progress', 'closed'] } }, attributes: ['physioId'] })).map((r) => r.physioId!);
+  const users = await User.findAll({ where: { id: { [Op.in]: [consultation.riderId, consultation.fitterId, ...physioIds] } }, attributes: ['id', 'displayName', 'role'] });
   return users.map((u) => ({ id: u.id, displayName: u.displayName, role: u.role }));
 }

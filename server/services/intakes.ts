@@ -7,6 +7,7 @@ import type { StoredTriage } from '../models/intake';
 import type { AppContext } from '../context';
 import { recordAudit, type AuditActor } from './audit';
 import { mayReadHealthData } from './access';
+import { actOnUrgentIntake } from './urgent-flags';
 import { giveConsent } from './consents';
 import { removeStoredFiles } from './upload-storage';
 
@@ -95,6 +96,7 @@ export async function submitIntake(ctx: AppContext, riderId: number, input: Inta
     const draft = await findDraft(riderId, transaction);
     const intake = draft ? await draft.update(values, { transaction }) : await Intake.create({ riderId, ...values }, { transaction });
     await recordAudit(actor, { action: 'intake.submit', subjectType: 'intake', subjectId: intake.id, subjectUserId: riderId, detail: { level: triage.level } }, { transaction });
+    if (triage.level === 'urgent') await actOnUrgentIntake(ctx, riderId, transaction);
     return { intake, consent };
   });
 }

@@ -1,6 +1,6 @@
-import type { PlanInput, PhysioLimits, RiddenSetup } from '@shared/fit/planner';
+import { physioLimitsSchema, type PlanInput, type PhysioLimits, type RiddenSetup } from '@shared/fit/planner';
 import { conflict, notFound } from '../errors';
-import { Bike, type Consultation, type SetupSnapshot } from '../models';
+import { Bike, Plan, Referral, type Consultation, type SetupSnapshot } from '../models';
 import { getClinicSettings } from './clinic-settings';
 import { latestSubmitted } from './intakes';
 import { listSnapshots } from './setup-history';
@@ -28,9 +28,15 @@ async function currentPain(riderId: number): Promise<{ pain: number; level: Plan
   return { pain, level: intake?.triageLevel ?? 'none' };
 }
 
-/** Limits a physio set on this rider (filled in by the referral loop). */
-export async function physioLimitsFor(_riderId: number): Promise<PhysioLimits | undefined> {
-  return undefined;
+/**
+ * Limits physios set on this rider: the newest answered referral that set limits, plus a hold
+ * while any plan of the rider is paused. The planner and the server's plan check always apply them.
+ */
+export async function physioLimitsFor(riderId: number): Promise<PhysioLimits | undefined> {
+  const withLimits = await Referral.findOne({ where: { riderId, status: 'closed', decision: 'continue_with_limits' }, order: [['closedAt', 'DESC']] });
+  const held = await Plan.count({ where: { riderId, status: 'on_hold' } });
+  if (!withLimits && held === 0) return undefined;
+  return physioLimitsSchema.parse({ ...(withLimits?.limits ?? {}), hold: held > 0 });
 }
 
 /**

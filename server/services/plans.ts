@@ -12,6 +12,7 @@ import { recordAudit, type AuditActor } from './audit';
 import { postMessage } from './chat';
 import { consultationRoom } from '../socket/rooms';
 import { scheduleCheckInJobs } from './follow-up-jobs';
+import { nextStepBlocker } from './check-ins';
 
 /** States in which a fitter may send a plan. */
 const PLANNING_STATES = ['booked', 'in_session', 'plan_active'] as const;
@@ -44,8 +45,10 @@ async function supersedeActive(riderId: number, bikeId: number, transaction: Tra
 async function announcePlan(ctx: AppContext, consultation: Consultation, plan: Plan, senderId: number) {
   const steps = plan.plan.steps.length;
   const body = plan.kind === 'revert' ? 'A plan to go back to an earlier setup.' : `A new plan with ${steps} step${steps === 1 ? '' : 's'}.`;
-  const { message } = await postMessage(ctx, { id: senderId }, consultation, { clientId: randomUUID(), body, kind: 'plan', planId: plan.id });
-  ctx.io?.to(consultationRoom(consultation.id)).emit('message:created', message);
+  await ctx.runInOrder(consultationRoom(consultation.id), async () => {
+    const { message } = await postMessage(ctx, { id: senderId }, consultation, { clientId: randomUUID(), body, kind: 'plan', planId: plan.id });
+    ctx.io?.to(consultationRoom(consultation.id)).emit('message:created', message);
+  });
 }
 
 /**
@@ -105,6 +108,10 @@ export async function applyStep(ctx: AppContext, rider: Express.User, planId: nu
     if (!row || !step) throw notFound('That step');
     if (row.state === 'applied') throw conflict('You already marked this step as made.');
     if (row.state !== 'current') throw conflict('Make the steps in order: finish the current step first.');
+    if (stepIndex > 1) {
+      const blocker = await nextStepBlocker(plan, stepIndex - 1);
+      if (blocker) throw conflict(blocker);
+    }
     if (appliedOn < row.earliestDate) throw badRequest(`This step can be made from ${row.earliestDate}, after the adaptation period.`, { appliedOn: `Choose ${row.earliestDate} or later.` });
     if (appliedOn > todayUtc()) throw badRequest('The date cannot be in the future.', { appliedOn: 'Choose today or an earlier day.' });
 
@@ -160,4 +167,18 @@ export async function revertToSnapshot(ctx: AppContext, rider: Express.User, bik
   });
   await announcePlan(ctx, consultation, plan, rider.id);
   return plan;
+}
+
+/**
+ * "Go back one step" after a worse check-in: return to the setup the bike had before that step
+ * (the snapshot just before the step's own snapshot), through the same revert rules.
+ */
+export async function revertStep(ctx: AppContext, rider: Express.User, planId: number, stepIndex: number, actor: AuditActor) {
+  const plan = await Plan.findOne({ where: { id: planId, riderId: rider.id } });
+  const row = plan ? await PlanStep.findOne({ where: { planId, stepIndex } }) : null;
+  if (!plan || !row) throw notFound('That step');
+  if (row.state !== 'applied' || !row.snapshotId) throw conflict('Only a step you have made can be undone.');
+  const before = await SetupSnapshot.findOne({ where: { bikeId: plan.bikeId, id: { [Op.lt]: row.snapshotId } }, order: [['id', 'DESC']] });
+  if (!before) throw conflict('There is no earlier setup to go back to.');
+  return revertToSnapshot(ctx, rider, plan.bikeId, before.id, actor);
 }

@@ -4,7 +4,7 @@ import { AppError, notFound } from '../errors';
 import { Intake, Upload, User } from '../models';
 import type { AppContext } from '../context';
 import { recordAudit, type AuditActor } from './audit';
-import { mayReadHealthData } from './access';
+import { mayReadUpload } from './access';
 import { findDraft, latestSubmitted } from './intakes';
 import { assertSize, detectUpload, processClip, processPhoto } from './upload-content';
 import { removeStoredFiles, storedPath, writeStoredFile } from './upload-storage';
@@ -97,7 +97,7 @@ export interface ServedFile {
  */
 export async function readUploadFile(ctx: AppContext, viewer: Express.User, uploadId: number, variant: 'file' | 'thumbnail', actor: AuditActor): Promise<ServedFile> {
   const upload = await Upload.findByPk(uploadId);
-  if (!upload || !(await mayReadHealthData(viewer, upload.riderId))) throw notFound('That file');
+  if (!upload || !(await mayReadUpload(viewer, upload))) throw notFound('That file');
   const thumb = variant === 'thumbnail';
   if (thumb && !upload.thumbnailName) throw notFound('That thumbnail');
   await recordAudit(actor, { action: 'upload.read', subjectType: 'upload', subjectId: upload.id, subjectUserId: upload.riderId, detail: { variant } });

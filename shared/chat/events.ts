@@ -18,5 +18,7 @@ export interface ServerToClientEvents {
   'receipt:updated': (payload: { consultationId: number } & ChatCursor) => void;
   'typing:changed': (payload: { consultationId: number; userId: number; typing: boolean }) => void;
   'presence:changed': (payload: { consultationId: number; online: number[] }) => void;
+  /** Something in the care loop needs attention (check-in alert, referral change, hold). No health details. */
+  'care:alert': (payload: { kind: string; consultationId: number; message: string }) => void;
   'consultation:changed': (payload: { id: number; status: string; from: string; startsAt: string }) => void;
 }

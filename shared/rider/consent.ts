@@ -24,8 +24,17 @@ export const CONSENT_TEXTS: Record<ConsentKind, readonly ConsentText[]> = {
         'is recorded. I can export or delete my information, and withdraw this agreement, at any time; without it I cannot book.',
     },
   ],
-  // Added by the physio referral feature; listed now so the table and API take it without change.
-  'share-with-physio': [],
+  'share-with-physio': [
+    {
+      version: '2026-12-02',
+      title: 'Sharing your case with a physiotherapist',
+      text:
+        'I agree that the physiotherapist named on this referral may see what I told Saddlestep about my pain and injuries, ' +
+        'my check-ins, my current plan and setup history, and the photos and clips listed on the referral, so that they can ' +
+        'advise me and my fitter. They may also join my consultation chat. I can withdraw this agreement at any time; from ' +
+        'then on the physiotherapist can no longer open my case, though what they already advised stays on record.',
+    },
+  ],
 };
 
 /** The version a rider must agree to today, or null when the kind has no text yet. */

@@ -109,10 +109,10 @@ describe('the rider works through the plan', () => {
     expect(snapshot).toMatchObject({ source: 'step', bikeId: c.bikeId });
     expect(snapshot!.setup.saddleHeight).toBe(sent.body.plan.plan.steps[0].setupAfter.saddleHeight);
 
-    // The next step waits for its date; steps cannot be skipped or repeated.
+    // The next step waits for a check-in, its rides and its date; steps cannot be skipped or repeated.
     const early = await c.rider.post(`/api/plans/${planId}/steps/2/apply`, { appliedOn: today() });
-    expect(early.status).toBe(400);
-    expect(early.body.error.message).toMatch(/adaptation period/);
+    expect(early.status).toBe(409);
+    expect(early.body.error.message).toMatch(/Check in on the last change first/);
     await c.rider.post(`/api/plans/${planId}/steps/1/apply`, { appliedOn: today() }).expect(409);
     expect((await c.rider.post(`/api/plans/${planId}/steps/3/apply`, { appliedOn: today() })).status).toBeGreaterThanOrEqual(400);
   });

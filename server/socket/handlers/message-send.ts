@@ -15,9 +15,13 @@ export function messageSend({ io, socket, ctx, sendLimiter }: HandlerDeps) {
     if (!socket.rooms.has(consultationRoom(input.consultationId))) throw notFound('That consultation');
     if (!sendLimiter.take(socket.data.userId)) throw new AppError(429, 'rate_limited', 'You are sending messages too quickly. Wait a moment and try again.');
     const consultation = await chatMembership({ id: socket.data.userId, role: socket.data.role }, input.consultationId);
-    const { message, created } = await postMessage(ctx, { id: socket.data.userId }, consultation, { clientId: input.clientId, body: input.body, attachmentId: input.attachmentId });
+    // Store and broadcast in one ordered task per consultation, so broadcasts leave in seq order.
+    const { message, created } = await ctx.runInOrder(consultationRoom(consultation.id), async () => {
+      const stored = await postMessage(ctx, { id: socket.data.userId }, consultation, { clientId: input.clientId, body: input.body, attachmentId: input.attachmentId });
+      if (stored.created) socket.to(consultationRoom(consultation.id)).emit('message:created', stored.message);
+      return stored;
+    });
     if (created) {
-      socket.to(consultationRoom(consultation.id)).emit('message:created', message);
       socket.to(consultationRoom(consultation.id)).emit('typing:changed', { consultationId: consultation.id, userId: socket.data.userId, typing: false });
       await noticeOfflineRecipients(ctx, io, consultation, socket.data.userId);
     }

@@ -1,0 +1,48 @@
+import { REFERRAL_STATUS_LABELS } from '@shared/care';
+import type { CheckIn, Referral } from '../models';
+
+export function presentCheckIn(c: CheckIn) {
+  return {
+    id: c.id,
+    planId: c.planId,
+    stepIndex: c.stepIndex,
+    createdAt: c.createdAt.toISOString(),
+    rides: c.rides,
+    minutesRidden: c.minutesRidden,
+    comfort: c.comfort,
+    pains: c.pains,
+    numbness: c.numbness,
+    note: c.note,
+    analysis: c.analysis,
+    reviewedAt: c.reviewedAt?.toISOString() ?? null,
+  };
+}
+
+export function presentReferral(r: Referral, names: Map<number, string>, consent: { given: boolean; withdrawn: boolean }) {
+  return {
+    id: r.id,
+    consultationId: r.consultationId,
+    riderId: r.riderId,
+    riderName: names.get(r.riderId) ?? '',
+    fitterId: r.fitterId,
+    physio: r.physioId ? { id: r.physioId, displayName: names.get(r.physioId) ?? '' } : null,
+    origin: r.origin,
+    urgency: r.urgency,
+    status: r.status,
+    statusLabel: REFERRAL_STATUS_LABELS[r.status],
+    reason: r.reason,
+    findings: r.findings,
+    attachmentIds: r.attachmentIds,
+    decision: r.decision,
+    responseNote: r.responseNote,
+    limits: r.limits,
+    holdReason: r.holdReason,
+    declineNote: r.declineNote,
+    createdAt: r.createdAt.toISOString(),
+    sentAt: r.sentAt?.toISOString() ?? null,
+    acceptedAt: r.acceptedAt?.toISOString() ?? null,
+    closedAt: r.closedAt?.toISOString() ?? null,
+    escalated: r.escalatedAt !== null,
+    consent,
+  };
+}
