@@ -105,7 +105,7 @@ export function createApp(config: Config, options: { logger?: Logger } = {}): Sa
     res.json({ ok: true });
   };
   const auth = createAuthController({ passport, hasher, generateCsrfToken: csrf.generateToken, ctx });
-  app.use('/api', createApiRouter(ctx, { auth, authRateLimit: authRateLimit(config), health }));
+  app.use('/api', createApiRouter(ctx, { auth, authRateLimit: authRateLimit(config), health, hasher }));
 
   serveClient(app, config);
   app.use(createErrorHandler(logger));

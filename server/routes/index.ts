@@ -11,18 +11,21 @@ import { createRiderJourneyRouter } from './rider-journey';
 import { createBookingRouter } from './booking';
 import { createConsultationRoomRouter } from './consultation-room';
 import { createCareRouter } from './care';
+import { createAdminRouter } from './admin';
+import type { PasswordHasher } from '../services/passwords';
 
 interface RouteDeps {
   auth: ReturnType<typeof createAuthController>;
   authRateLimit: RequestHandler;
   health: RequestHandler;
+  hasher: PasswordHasher;
 }
 
 /**
  * Every API route, in one place. Each guarded route names its roles here, so a reader (and the
  * role-matrix test) can see the whole access policy at a glance.
  */
-export function createApiRouter(ctx: AppContext, { auth, authRateLimit, health }: RouteDeps): Router {
+export function createApiRouter(ctx: AppContext, { auth, authRateLimit, health, hasher }: RouteDeps): Router {
   const api = Router();
 
   const adminAccounts = createAdminAccountsController(ctx);
@@ -47,6 +50,7 @@ export function createApiRouter(ctx: AppContext, { auth, authRateLimit, health }
   api.use(createBookingRouter(ctx));
   api.use(createConsultationRoomRouter(ctx));
   api.use(createCareRouter(ctx));
+  api.use(createAdminRouter(ctx, hasher));
 
   api.use(apiNotFound);
   return api;
