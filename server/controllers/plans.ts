@@ -5,7 +5,7 @@ import { planInputsQuerySchema, type applyStepSchema, type noteSchema, type reve
 import { photoMeasurementInputSchema } from '@shared/fit/photo';
 import { notFound } from '../errors';
 import { parseId, parseOrThrow } from '../middleware/validate';
-import { Plan, PlanStep, User } from '../models';
+import { Consultation, Plan, PlanStep, User } from '../models';
 import type { AppContext } from '../context';
 import { presentPlan } from '../presenters/plan';
 import { actorFromRequest, recordAudit } from '../services/audit';
@@ -60,7 +60,9 @@ export function createPlanController(ctx: AppContext) {
   const listForConsultation: RequestHandler = async (req, res) => {
     const id = idParam(req.params.id, 'That consultation');
     const user = req.user!;
-    const plans = await Plan.findAll({ where: { consultationId: id, [Op.or]: [{ riderId: user.id }, { fitterId: user.id }] }, order: [['id', 'DESC']] });
+    const consultation = await Consultation.findOne({ where: { id, [Op.or]: [{ riderId: user.id }, { fitterId: user.id }] } });
+    if (!consultation) throw notFound('That consultation');
+    const plans = await Plan.findAll({ where: { consultationId: id }, order: [['id', 'DESC']] });
     if (plans.length) await recordAudit(actorFromRequest(req), { action: 'plan.read', subjectType: 'consultation', subjectId: id, subjectUserId: plans[0]!.riderId });
     res.json({ plans: await Promise.all(plans.map(withSteps)) });
   };
