@@ -44,7 +44,9 @@ async function presentAll(messages: Message[]): Promise<ChatMessage[]> {
 /**
  * Store a message and give it the consultation's next sequence number. The consultation row is
  * locked while the number is taken, so concurrent senders get distinct, gap-free numbers in commit
- * order. A message whose client id was already stored is returned as it was (no duplicate).
+ * order. A message whose client id was already stored is returned as it was (no duplicate): the
+ * unique (consultation, client id) index refuses the insert, the transaction (and its number) is
+ * rolled back, and the stored row is returned.
  */
 export async function postMessage(
   ctx: AppContext,
@@ -52,8 +54,6 @@ export async function postMessage(
   consultation: Consultation,
   input: { clientId: string; body: string; attachmentId?: number; kind?: Message['kind']; planId?: number | null },
 ): Promise<{ message: ChatMessage; created: boolean }> {
-  const existing = await Message.findOne({ where: { consultationId: consultation.id, clientId: input.clientId } });
-  if (existing) return { message: (await presentAll([existing]))[0]!, created: false };
   let attachment: Upload | null = null;
   if (input.attachmentId !== undefined) {
     attachment = await Upload.findOne({ where: { id: input.attachmentId, riderId: consultation.riderId } });
@@ -69,7 +69,8 @@ export async function postMessage(
         { transaction },
       );
     });
-    await advanceCursor(consultation.id, sender.id, 'readSeq', message.seq);
+    // The sender has read their own message.
+    await upsertCursor(consultation.id, sender.id, message.seq, message.seq);
     return { message: presentMessage(message, attachment), created: true };
   } catch (error) {
     // Two sends of one client id raced: the loser returns the winner's row.
@@ -93,16 +94,20 @@ export async function messagesBefore(consultationId: number, beforeSeq: number, 
   return { messages: await presentAll(rows.slice(0, limit).reverse()), hasMore: rows.length > limit };
 }
 
+/** One upsert; GREATEST keeps a cursor monotonic when two tabs report at once. */
+async function upsertCursor(consultationId: number, userId: number, deliveredSeq: number, readSeq: number) {
+  await ChatCursor.sequelize!.query(
+    `INSERT INTO chat_cursors (consultation_id, user_id, delivered_seq, read_seq, updated_at) VALUES (?, ?, ?, ?, NOW())
+     ON DUPLICATE KEY UPDATE delivered_seq = GREATEST(delivered_seq, VALUES(delivered_seq)), read_seq = GREATEST(read_seq, VALUES(read_seq)), updated_at = NOW()`,
+    { replacements: [consultationId, userId, deliveredSeq, readSeq] },
+  );
+}
+
 /** Move a delivered/read cursor forward (never back); reading implies delivery. */
 export async function advanceCursor(consultationId: number, userId: number, field: 'deliveredSeq' | 'readSeq', seq: number): Promise<CursorView> {
-  const [cursor] = await ChatCursor.findOrCreate({ where: { consultationId, userId }, defaults: { consultationId, userId, deliveredSeq: 0, readSeq: 0 } });
-  const deliveredSeq = Math.max(cursor.deliveredSeq, seq);
-  const readSeq = field === 'readSeq' ? Math.max(cursor.readSeq, seq) : cursor.readSeq;
-  if (deliveredSeq !== cursor.deliveredSeq || readSeq !== cursor.readSeq) {
-    // A conditional update keeps the cursor monotonic when two tabs report at once.
-    await ChatCursor.update({ deliveredSeq, readSeq }, { where: { consultationId, userId, deliveredSeq: { [Op.lte]: deliveredSeq }, readSeq: { [Op.lte]: readSeq } } });
-  }
-  return { userId, deliveredSeq, readSeq };
+  await upsertCursor(consultationId, userId, seq, field === 'readSeq' ? seq : 0);
+  const cursor = await ChatCursor.findOne({ where: { consultationId, userId } });
+  return { userId, deliveredSeq: cursor?.deliveredSeq ?? seq, readSeq: cursor?.readSeq ?? 0 };
 }
 
 export async function cursorsOf(consultationId: number): Promise<CursorView[]> {
