@@ -38,11 +38,11 @@ async function beginAttempt(ctx: AppContext, rider: User, consultationId: number
     if (other && Date.now() - other.updatedAt.getTime() < ABANDONED_AFTER_MS) throw conflict('A payment for this booking is already in progress. Wait a moment and reload the page.');
     // An attempt left pending by a lost connection long ago is given up, so a reloaded page can pay.
     if (other) await other.update({ status: 'failed', failureMessage: 'abandoned attempt' }, { transaction });
+    const HOLD_RAN_OUT = 'The time we held for you ran out. Please choose a time again.';
+    if (consultation.status === 'expired') throw conflict(HOLD_RAN_OUT);
     if (!['requested', 'awaiting_payment'].includes(consultation.status)) throw conflict('This booking can no longer be paid. Please choose a time again.');
     const now = Date.now();
-    if (!consultation.holdExpiresAt || consultation.holdExpiresAt.getTime() <= now) {
-      throw conflict('The time we held for you ran out. Please choose a time again.');
-    }
+    if (!consultation.holdExpiresAt || consultation.holdExpiresAt.getTime() <= now) throw conflict(HOLD_RAN_OUT);
     const holdExpiresAt = new Date(Math.max(consultation.holdExpiresAt.getTime(), now + PAYMENT_GRACE_MS));
     if (consultation.status === 'requested') {
       await transitionConsultation(ctx, consultation, 'awaiting_payment', { actorId: rider.id, transaction, changes: { holdExpiresAt } });
