@@ -66,6 +66,8 @@ try {
     UPLOAD_DIR: path.join(tmp, 'uploads'),
     CLIENT_DIST: path.join(root, 'dist'),
     AUTH_RATE_LIMIT: '10000',
+    // Tests drive the scheduler with explicit ticks; a background one would race them for jobs.
+    SCHEDULER_INTERVAL_SECONDS: '0',
   };
   const serverPort = await freePort();
   testEnv.PUBLIC_URL = `http://127.0.0.1:${serverPort}`;
