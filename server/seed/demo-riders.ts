@@ -44,6 +44,16 @@ const DEMO_RIDERS: DemoRider[] = [
       setup: { saddleHeight: 676, saddleSetback: 48, saddleTilt: 0, reach: 505, drop: 40, stemLength: 80, spacerStack: 25, crankLength: 170, stack: 20, cleatForeAft: 2, cleatRotation: 3 },
       cleatNotes: 'Left cleat turned slightly out.', takenOn: '2026-11-28',
     },
+    intake: {
+      symptoms: [{ region: 'hand-left', pain: 3, kind: 'tingling', timing: ['during-ride'], durationDays: 45, numbness: false, swelling: false, afterCrash: false }],
+      redFlagAnswers: {
+        'saddle-numbness-persists': false, 'bladder-bowel-change': false, 'leg-weakness': false, 'hot-swollen-joint': false, 'fever-with-pain': false,
+        'saddle-numbness-riding': false, 'back-pain': false, 'pain-at-rest-or-night': false, 'swelling-locking-giving-way': false,
+        'numbness-persists-off-bike': false, 'severe-pain': false, 'crash-or-fall': false, 'not-settled-after-changes': false,
+      },
+      goals: ['more-comfort', 'ride-longer'],
+      goalNotes: 'Ride a whole gravel day without my left hand going fuzzy.',
+    },
   },
   {
     email: 'deshawn@rider.example',

@@ -3,6 +3,7 @@ import { upsertUser } from '../services/users';
 import { DEMO_PASSWORD, DEMO_PEOPLE } from './demo-people';
 import { seedDemoRiders } from './demo-riders';
 import { seedDemoFitting } from './demo-fitting';
+import { seedDemoCare } from './demo-care';
 import type { AppContext } from '../context';
 
 /**
@@ -17,5 +18,6 @@ export async function seedDemo(ctx: AppContext, hasher: PasswordHasher): Promise
   }
   await seedDemoRiders();
   await seedDemoFitting(ctx);
+  await seedDemoCare();
   return { created };
 }
