@@ -4,6 +4,7 @@ import type { APIRequestContext, BrowserContext, Page } from 'playwright-core';
 import { DEMO_PASSWORD, DEMO_PEOPLE } from '@server/seed/demo-people';
 import { launchBrowser, signIn, testBaseUrl, type BrowserSession } from '../support/browser';
 import { attachmentText, waitForMails } from '../support/mail';
+import sharp from 'sharp';
 
 /*
  * The booking journey in the browser: a fitter publishes a week on the Availability page, then
@@ -130,7 +131,7 @@ describe('booking in the browser', () => {
     await context.close();
   });
 
-  it('lets a new rider pick a slot in their own zone, pay with the test card and get the invite', async () => {
+  it('follows a new rider from registration through the intake and a photo to a paid, confirmed session and its invite', async () => {
     const { context, page, requests } = await openTab({ timeZone: RIDER_ZONE, viewport: PHONE });
     const email = uniqueEmail('rider');
     await page.goto('/register');
@@ -141,8 +142,27 @@ describe('booking in the browser', () => {
     // The time-zone select starts at the device's zone: New York here.
     await page.locator('[data-test="submit"]').click();
     await page.waitForURL('**/rider');
-    await makeReadyToBook(page);
 
+    // Tell us what hurts: the body map, the safety questions, consent, then a photo with progress.
+    await page.locator('[data-test="next-action-go"]').click();
+    await page.waitForURL('**/rider/tell-us-what-hurts');
+    await page.locator('[data-test="region-knee-front-left"]').click();
+    await page.locator('[data-test="pain-knee-front-left-4"]').click();
+    await page.locator('[data-test="kind-knee-front-left-ache"]').click();
+    await page.locator('[data-test="timing-knee-front-left-during-ride"]').click();
+    await page.locator('[data-test="duration-knee-front-left-21"]').click();
+    const noButtons = page.locator('[data-test^="flag-"][data-test$="-no"]');
+    for (let i = 0, n = await noButtons.count(); i < n; i += 1) await noButtons.nth(i).click();
+    await page.locator('[data-test="goal-ride-without-pain"]').click();
+    await page.locator('[data-test="consent"]').click();
+    await page.locator('[data-test="intake-submit"]').click();
+    await expect(page.locator('[data-test="triage-result"]').getAttribute('data-level')).resolves.toBe('none');
+    const png = await sharp({ create: { width: 64, height: 48, channels: 3, background: '#1f4d45' } }).png().toBuffer();
+    await page.locator('[data-test="upload-view-side-crank-3"]').click();
+    await page.locator('[data-test="upload-input"]').setInputFiles({ name: 'side-on.png', mimeType: 'image/png', buffer: png });
+    await page.locator('[data-test="upload-progress"][data-status="done"]').waitFor();
+
+    await page.goto('/rider');
     await page.locator('[data-test="book-session"]').click();
     await page.waitForURL('**/book');
     await openFitterWeek(page);
