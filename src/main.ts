@@ -8,8 +8,11 @@ import './styles/theme.css';
 import './styles/base.css';
 import App from './App.vue';
 import { createAppRouter } from './router';
+import { useChatStore } from './stores/chat';
 
 const pinia = createPinia();
 const router = createAppRouter(pinia);
+// The one chat socket follows the session: open after sign-in, closed on sign-out.
+useChatStore(pinia).start();
 
 createApp(App).use(pinia).use(router).mount('#app');

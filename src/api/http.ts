@@ -8,6 +8,8 @@ export class ApiError extends Error {
     readonly code: string,
     message: string,
     readonly fields: Record<string, string> = {},
+    /** The whole `error` object of the body, for endpoints that add more (e.g. a plan's `violations`). */
+    readonly details: Record<string, unknown> = {},
   ) {
     super(message);
     this.name = 'ApiError';
@@ -93,10 +95,11 @@ async function readJson(response: Response): Promise<unknown> {
 }
 
 async function toApiError(response: Response): Promise<ApiError> {
-  const parsed = errorBodySchema.safeParse(await response.json().catch(() => null));
+  const body: unknown = await response.json().catch(() => null);
+  const parsed = errorBodySchema.safeParse(body);
   if (!parsed.success) return new ApiError(response.status, 'http_error', fallbackMessage(response.status));
   const { code, message, fields } = parsed.data.error;
-  return new ApiError(response.status, code, message, fields);
+  return new ApiError(response.status, code, message, fields, (body as { error: Record<string, unknown> }).error);
 }
 
 // Several requests may find the token missing at once; they share one fetch.
@@ -160,6 +163,10 @@ export const http = {
   /** DELETE, for endpoints that answer 204 No Content. */
   async deleteEmpty(path: string, options: RequestOptions = {}): Promise<void> {
     await send('DELETE', path, undefined, options);
+  },
+  /** DELETE with a JSON body (e.g. a password to confirm), for endpoints that answer 204 No Content. */
+  async del(path: string, body: unknown, options: RequestOptions = {}): Promise<void> {
+    await send('DELETE', path, body, options);
   },
   /** For endpoints that answer 204 No Content. */
   async postEmpty(path: string, body?: unknown, options: RequestOptions = {}): Promise<void> {

@@ -28,6 +28,8 @@ export const ROUTE = {
   book: 'book',
   checkout: 'checkout',
   consultation: 'consultation',
+  sessionRoom: 'session-room',
+  myPlan: 'my-plan',
   notFound: 'not-found',
 } as const;
 export type RouteName = (typeof ROUTE)[keyof typeof ROUTE];
@@ -52,5 +54,8 @@ export const routes: RouteRecordRaw[] = [
   { path: '/book', name: ROUTE.book, component: () => import('@/views/BookView.vue'), meta: { roles: ['rider'], title: 'Book' } },
   { path: '/consultations/:id(\\d+)/pay', name: ROUTE.checkout, component: () => import('@/views/CheckoutView.vue'), meta: { roles: ['rider'], title: 'Pay for your session' } },
   { path: '/consultations/:id(\\d+)', name: ROUTE.consultation, component: () => import('@/views/ConsultationView.vue'), meta: { roles: ['rider', 'fitter'], title: 'Your session' } },
+  // The live session: chat for both, and the fitter's workspace beside it; then the rider's plan.
+  { path: '/consultations/:id(\\d+)/room', name: ROUTE.sessionRoom, component: () => import('@/views/SessionRoomView.vue'), meta: { roles: ['rider', 'fitter'], title: 'Session room' } },
+  { path: '/plan', name: ROUTE.myPlan, component: () => import('@/views/MyPlanView.vue'), meta: { roles: ['rider'], title: 'My plan' } },
   { path: '/:pathMatch(.*)*', name: ROUTE.notFound, component: () => import('@/views/NotFoundView.vue'), meta: { title: 'Page not found' } },
 ];
