@@ -24,6 +24,7 @@ export const ROUTE = {
   riderAboutMe: 'rider-about-me',
   riderBike: 'rider-bike',
   riderIntake: 'rider-intake',
+  myData: 'my-data',
   fitterAvailability: 'fitter-availability',
   book: 'book',
   checkout: 'checkout',
@@ -49,6 +50,7 @@ export const routes: RouteRecordRaw[] = [
   { path: '/rider/about-me', name: ROUTE.riderAboutMe, component: () => import('@/views/AboutMeView.vue'), meta: { roles: ['rider'], title: 'About me · My bikes' } },
   { path: '/rider/bikes/:id(\\d+)', name: ROUTE.riderBike, component: () => import('@/views/BikeView.vue'), meta: { roles: ['rider'], title: 'My bike' } },
   { path: '/rider/tell-us-what-hurts', name: ROUTE.riderIntake, component: () => import('@/views/IntakeView.vue'), meta: { roles: ['rider'], title: 'Tell us what hurts' } },
+  { path: '/rider/data', name: ROUTE.myData, component: () => import('@/views/MyDataView.vue'), meta: { roles: ['rider'], title: 'Your data' } },
   // Booking: the fitter's week, the rider's hold → pay → confirmed, and one page per consultation.
   { path: '/fitter/availability', name: ROUTE.fitterAvailability, component: () => import('@/views/FitterAvailabilityView.vue'), meta: { roles: ['fitter'], title: 'Availability' } },
   { path: '/book', name: ROUTE.book, component: () => import('@/views/BookView.vue'), meta: { roles: ['rider'], title: 'Book' } },

@@ -80,5 +80,10 @@ export const useAuthStore = defineStore('auth', () => {
     }
   }
 
-  return { user, csrfToken, loaded, sessionEndedCount, role, isSignedIn, ensureLoaded, signIn, register, signOut };
+  /** The account no longer exists (the rider erased it): forget it here; there is no session left to end. */
+  function forgetDeletedAccount(): void {
+    forget();
+  }
+
+  return { user, csrfToken, loaded, sessionEndedCount, role, isSignedIn, ensureLoaded, signIn, register, signOut, forgetDeletedAccount };
 });
