@@ -1,5 +1,7 @@
 import { z } from 'zod';
+import { CHECK_IN_DECISIONS } from '@shared/fit/checkin';
 import { http } from './http';
+import { referralSchema } from './referrals';
 
 const followUpSchema = z.object({
   riderId: z.number(),
@@ -9,6 +11,9 @@ const followUpSchema = z.object({
   stepIndex: z.number(),
   checkInDue: z.string().nullable(),
   state: z.string(),
+  /** For riders getting worse: what their latest check-in concluded. */
+  decision: z.enum(CHECK_IN_DECISIONS).optional(),
+  checkInId: z.number().optional(),
 });
 export type FollowUp = z.infer<typeof followUpSchema>;
 
@@ -16,6 +21,8 @@ const followUpsSchema = z.object({
   due: z.array(followUpSchema),
   overdue: z.array(followUpSchema),
   gettingWorse: z.array(followUpSchema),
+  /** System proposals to confirm and referrals a physio declined. */
+  referralsWaiting: z.array(referralSchema).default([]),
 });
 export type FollowUps = z.infer<typeof followUpsSchema>;
 

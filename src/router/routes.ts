@@ -31,6 +31,9 @@ export const ROUTE = {
   consultation: 'consultation',
   sessionRoom: 'session-room',
   myPlan: 'my-plan',
+  checkIn: 'check-in',
+  referralConsent: 'referral-consent',
+  physioReferral: 'referral',
   notFound: 'not-found',
 } as const;
 export type RouteName = (typeof ROUTE)[keyof typeof ROUTE];
@@ -59,5 +62,9 @@ export const routes: RouteRecordRaw[] = [
   // The live session: chat for both, and the fitter's workspace beside it; then the rider's plan.
   { path: '/consultations/:id(\\d+)/room', name: ROUTE.sessionRoom, component: () => import('@/views/SessionRoomView.vue'), meta: { roles: ['rider', 'fitter'], title: 'Session room' } },
   { path: '/plan', name: ROUTE.myPlan, component: () => import('@/views/MyPlanView.vue'), meta: { roles: ['rider'], title: 'My plan' } },
+  // After rides on a step: the check-in; referrals to a physio, with the rider's agreement first.
+  { path: '/plan/check-in', name: ROUTE.checkIn, component: () => import('@/views/CheckInView.vue'), meta: { roles: ['rider'], title: 'Check-in' } },
+  { path: '/referrals/:id(\\d+)/consent', name: ROUTE.referralConsent, component: () => import('@/views/ReferralConsentView.vue'), meta: { roles: ['rider'], title: 'Share with a physiotherapist' } },
+  { path: '/physio/referrals/:id(\\d+)', name: ROUTE.physioReferral, component: () => import('@/views/PhysioReferralView.vue'), meta: { roles: ['physio'], title: 'Referral' } },
   { path: '/:pathMatch(.*)*', name: ROUTE.notFound, component: () => import('@/views/NotFoundView.vue'), meta: { title: 'Page not found' } },
 ];

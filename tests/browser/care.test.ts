@@ -1,0 +1,181 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { BrowserContext, Page } from 'playwright-core';
+import { buildPlan } from '@shared/fit/planner';
+import { RED_FLAG_QUESTIONS } from '@shared/fit/triage';
+import { currentConsent } from '@shared/rider';
+import type { SaddlestepApp } from '@server/app';
+import { PlanStep } from '@server/models';
+import { startTestApp } from '../support/app';
+import { TEST_PASSWORD } from '../support/factories';
+import { caseOnStepOne, today } from '../support/care-factories';
+import { TEST_SETUP } from '../support/plan-factories';
+import { launchBrowser, openPage, signIn, type BrowserSession } from '../support/browser';
+
+/*
+ * The care loop in the browser: a rider's check-in and its advice, the fitter's alert on Today,
+ * a physio accepting a referral and setting limits, and the plan builder keeping to them. Data is
+ * made through the real app against the test database (the launcher's server shares it); every
+ * test makes its own rider, fitter and physio.
+ */
+
+const PHONE = { width: 390, height: 844 };
+const URGENT_IDS = RED_FLAG_QUESTIONS.filter((q) => q.level === 'urgent').map((q) => q.id);
+
+let saddlestep: SaddlestepApp;
+let session: BrowserSession;
+beforeAll(async () => {
+  saddlestep = await startTestApp();
+  session = await launchBrowser();
+});
+afterAll(async () => {
+  await session?.close();
+  await saddlestep?.close();
+});
+
+type Case = Awaited<ReturnType<typeof caseOnStepOne>>;
+
+const field = (page: Page, test: string) => page.locator(`[data-test="${test}"] input, [data-test="${test}"] textarea, input[data-test="${test}"], textarea[data-test="${test}"]`).first();
+
+async function signedInTab(email: string, home: string, viewport?: { width: number; height: number }): Promise<{ context: BrowserContext; page: Page }> {
+  const { context, page } = await openPage(session.browser, viewport ? { viewport } : {});
+  await signIn(page, email, TEST_PASSWORD);
+  await page.waitForURL(`**${home}`);
+  return { context, page };
+}
+
+/** The fitter refers to this case's physio and the rider agrees to share; returns the referral id. */
+async function sharedReferral(c: Case): Promise<number> {
+  const created = await c.fitter.post(`/api/consultations/${c.consultation.id}/referrals`, { urgency: 'soon', reason: 'Knee sorer after the saddle went up.', findings: 'Front of knee 6/10 after step 1.', attachmentIds: [], physioId: c.physio.user.id });
+  expect(created.status, JSON.stringify(created.body)).toBe(201);
+  const id = created.body.referral.id as number;
+  await c.rider.post(`/api/rider/referrals/${id}/consent`, { version: currentConsent('share-with-physio')!.version, agreed: true }).expect(200);
+  return id;
+}
+
+describe('check-ins, referrals and physio limits in the browser', () => {
+  it('shows a rider the advice after a worse check-in, and the fitter sees them on Today', async () => {
+    const c = await caseOnStepOne(saddlestep.app);
+    // The check-in date has passed without one (what the scheduler's overdue job records).
+    await PlanStep.update({ checkInDue: today(), overdueAt: new Date() }, { where: { planId: c.planId, stepIndex: 1 } });
+    const { context, page } = await signedInTab(c.rider.user.email, '/rider', PHONE);
+    const due = page.locator('[data-test="checkin-due"]');
+    await due.waitFor();
+    await expect(due.getAttribute('data-state')).resolves.toBe('overdue');
+    await expect(due.innerText()).resolves.toContain('Check-in overdue');
+    await due.locator('[data-test="checkin-go"]').click();
+    await page.waitForURL('**/plan/check-in');
+    await page.locator('[data-test="checkin-step"]').waitFor();
+
+    // Sending nothing names what is missing, before anything reaches the server.
+    await page.locator('[data-test="checkin-submit"]').click();
+    const errors = page.locator('[data-test="checkin-errors"]');
+    await errors.waitFor();
+    await expect(errors.innerText()).resolves.toMatch(/how comfortable/i);
+
+    await field(page, 'checkin-rides').fill('3');
+    await field(page, 'checkin-hours').fill('1');
+    await field(page, 'checkin-minutes').fill('30');
+    await field(page, 'checkin-minutes').press('Tab');
+    await page.locator('[data-test="checkin-comfort-3"]').click();
+    // The same body map as the intake: the sore knee hurts more than at the start (3 → 6).
+    await page.locator('[data-test="region-knee-front-left"]').click();
+    await page.locator('[data-test="pain-knee-front-left-6"]').click();
+    await page.locator('[data-test="checkin-numbness-no"]').click();
+    for (const id of URGENT_IDS) await page.locator(`[data-test="flag-${id}-no"]`).click();
+    // The note is plain text: markup characters are refused with the shared schema's message.
+    await field(page, 'checkin-note').fill('Sore on the climbs, <b>after</b> an hour.');
+    await page.locator('[data-test="checkin-submit"]').click();
+    await expect(errors.innerText()).resolves.toContain('The note cannot contain < or >.');
+    await field(page, 'checkin-note').fill('Sore on the climbs, after an hour.');
+    await page.locator('[data-test="checkin-submit"]').click();
+
+    const result = page.locator('[data-test="checkin-result"]');
+    await result.waitFor();
+    await expect(result.getAttribute('data-decision')).resolves.toBe('suggest-revert');
+    await expect(page.locator('[data-test="checkin-status"]').innerText()).resolves.toMatch(/Watch/);
+    await expect(page.locator('[data-test="checkin-revert"]').isVisible()).resolves.toBe(true);
+    await expect(page.locator('[data-test="urgent-notice"]').count()).resolves.toBe(0);
+    await expect(result.locator('[data-test="intake-cautions"]').innerText()).resolves.toContain('does not diagnose');
+    await context.close();
+
+    // The fitter's Today lists the rider as getting worse, with a status word and a link into the room.
+    const fitter = await signedInTab(c.fitter.user.email, '/fitter');
+    const entry = fitter.page.locator(`[data-test="follow-up-worse-${c.planId}"]`);
+    await entry.waitFor();
+    await expect(entry.innerText()).resolves.toMatch(/Watch/);
+    await expect(entry.innerText()).resolves.toContain(c.rider.user.displayName);
+    await entry.click();
+    await fitter.page.waitForURL(`**/consultations/${c.consultation.id}/room?tab=checkins`);
+    await fitter.page.locator('[data-test="checkin-trend-table"]').waitFor({ state: 'attached' });
+    await expect(fitter.page.locator('[data-test="checkin-trend-table"] tbody tr').count()).resolves.toBe(2);
+    await fitter.context.close();
+  });
+
+  it('lets a physio accept a referral, open the shared case and answer with limits', async () => {
+    const c = await caseOnStepOne(saddlestep.app);
+    const id = await sharedReferral(c);
+    const { context, page } = await signedInTab(c.physio.user.email, '/physio');
+    const item = page.locator(`[data-test="referral-${id}"]`);
+    await item.waitFor();
+    await expect(item.innerText()).resolves.toMatch(/Soon/);
+    await item.click();
+    await page.waitForURL(`**/physio/referrals/${id}`);
+
+    await page.locator('[data-test="accept-referral"]').click();
+    await page.locator('[data-test="physio-case"]').waitFor();
+    await expect(page.locator('[data-test="join-room"]').getAttribute('href')).resolves.toBe(`/consultations/${c.consultation.id}/room`);
+    await page.locator('[data-test="start-referral"]').click();
+    await page.locator('[data-test="referral-status"]').getByText('In progress').waitFor();
+
+    await field(page, 'respond-note').fill('Irritated front of the knee. Keep saddle changes very small; leave the cleats alone.');
+    await page.locator('[data-test="respond-decision-continue_with_limits"]').click();
+    await field(page, 'limit-cap-saddleHeight').fill('1');
+    await page.locator('[data-test="exclude-cleatRotation"]').click();
+    await page.locator('[data-test="respond-submit"]').click();
+
+    const answer = page.locator('[data-test="physio-response"]');
+    await answer.waitFor();
+    await expect(answer.getAttribute('data-decision')).resolves.toBe('continue_with_limits');
+    await expect(answer.innerText()).resolves.toContain('saddle height ≤ 1 mm per step');
+    await expect(answer.innerText()).resolves.toContain('cleat rotation excluded');
+    const inputs = await c.fitter.get(`/api/consultations/${c.consultation.id}/plan-inputs?bikeId=${c.bikeId}`).expect(200);
+    expect(inputs.body.physio).toMatchObject({ stepCaps: { saddleHeight: 1 }, excludedParameters: ['cleatRotation'] });
+    await context.close();
+  });
+
+  it("shows the physio's limits in the fitter's plan builder, previews within them and refuses a plan over them", async () => {
+    const c = await caseOnStepOne(saddlestep.app);
+    const id = await sharedReferral(c);
+    await c.physio.post(`/api/physio/referrals/${id}/accept`).expect(200);
+    await c.physio
+      .post(`/api/physio/referrals/${id}/respond`, { note: 'Go gently.', decision: 'continue_with_limits', limits: { stepCaps: { saddleHeight: 1 }, excludedParameters: ['cleatRotation'] } })
+      .expect(200);
+
+    const { context, page } = await signedInTab(c.fitter.user.email, '/fitter');
+    await page.goto(`/consultations/${c.consultation.id}/room?tab=plan`);
+    const limits = page.locator('[data-test="plan-physio-limits"]');
+    await limits.waitFor();
+    await expect(limits.innerText()).resolves.toContain('saddle height ≤ 1 mm per step');
+    await expect(limits.innerText()).resolves.toContain('cleat rotation excluded');
+
+    // A 3 mm target becomes three 1 mm steps in the preview.
+    await field(page, 'plan-target-saddleHeight').fill(String(TEST_SETUP.saddleHeight + 9));
+    await field(page, 'plan-target-saddleHeight').press('Tab');
+    const preview = page.locator('[data-test="plan-preview"]');
+    await preview.waitFor();
+    await expect.poll(async () => Number(await preview.getAttribute('data-steps'))).toBeGreaterThanOrEqual(3);
+
+    // A plan built without the limits, sent straight to the API from the same session, is refused.
+    const inputs = (await page.request.get(`/api/consultations/${c.consultation.id}/plan-inputs?bikeId=${c.bikeId}`)).json() as Promise<Record<string, unknown>>;
+    const { bikeId: _bikeId, physio: _physio, ...withoutLimits } = await inputs;
+    const target = { ...TEST_SETUP, saddleHeight: TEST_SETUP.saddleHeight + 6 };
+    const tampered = buildPlan({ ...(withoutLimits as Omit<Parameters<typeof buildPlan>[0], 'target'>), target });
+    const csrf = ((await (await page.request.get('/api/auth/csrf')).json()) as { csrfToken: string }).csrfToken;
+    const refused = await page.request.post(`/api/consultations/${c.consultation.id}/plans`, {
+      data: { bikeId: c.bikeId, target, startDate: (await inputs).startDate, plan: tampered },
+      headers: { 'X-CSRF-Token': csrf },
+    });
+    expect(refused.status()).toBe(422);
+    await context.close();
+  });
+});
