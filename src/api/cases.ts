@@ -47,7 +47,7 @@ const caseSchema = z.object({
     .nullable(),
   bikes: z.array(z.object({ id: z.number(), name: z.string(), currentSetup: setupSchema.nullable(), snapshots: z.array(snapshotViewSchema) })),
   uploads: z.array(
-    z.object({ id: z.number(), kind: z.enum(['photo', 'clip']), view: z.string().nullable(), width: z.number().nullable(), height: z.number().nullable(), createdAt: z.string() }),
+    z.object({ id: z.number(), kind: z.enum(['photo', 'clip']), view: z.string().nullable(), width: z.number().nullable(), height: z.number().nullable(), createdAt: z.string(), measured: z.boolean().optional() }),
   ),
 });
 export type CaseFile = z.infer<typeof caseSchema>;

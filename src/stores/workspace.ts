@@ -2,6 +2,7 @@ import { computed, ref, shallowRef } from 'vue';
 import { defineStore } from 'pinia';
 import type { PhotoMeasurement } from '@shared/fit/photo';
 import { casesApi, type CaseFile } from '@/api/cases';
+import { measurementsApi } from '@/api/measurements';
 import { asApiError, type ApiError } from '@/api/http';
 
 /**
@@ -57,5 +58,19 @@ export const useWorkspaceStore = defineStore('workspace', () => {
     if (result.thighMm && result.shankMm) measuredLeg.value = { thigh: Math.round(result.thighMm.value), shank: Math.round(result.shankMm.value) };
   }
 
-  return { consultationId, caseFile, error, loading, bike, inseamMm, measuredKneeFlexion, measuredLeg, load, chooseBike, noteMeasurement };
+  /** The newest saved measurement of this case's photos, unless this visit already has one. */
+  async function loadLatestMeasurement(): Promise<void> {
+    const id = consultationId.value;
+    const measured = (caseFile.value?.uploads ?? []).filter((u) => u.measured);
+    if (id === null || measured.length === 0 || measuredKneeFlexion.value !== null) return;
+    try {
+      const lists = await Promise.all(measured.map((u) => measurementsApi.list(u.id, id)));
+      const latest = lists.flat().sort((a, b) => a.createdAt.localeCompare(b.createdAt) || a.id - b.id).pop();
+      if (latest && consultationId.value === id) noteMeasurement(latest.result);
+    } catch {
+      // The estimates work without it; the fitter can type the numbers.
+    }
+  }
+
+  return { loadLatestMeasurement, consultationId, caseFile, error, loading, bike, inseamMm, measuredKneeFlexion, measuredLeg, load, chooseBike, noteMeasurement };
 });
