@@ -111,6 +111,36 @@ describe('check-ins, referrals and physio limits in the browser', () => {
     await fitter.context.close();
   });
 
+  it('asks the rider before anything is shared, and a withdrawal closes the case to the physio at once', async () => {
+    const c = await caseOnStepOne(saddlestep.app);
+    const created = await c.fitter.post(`/api/consultations/${c.consultation.id}/referrals`, { urgency: 'routine', reason: 'Pain has not settled after the change.', findings: '', attachmentIds: [], physioId: c.physio.user.id });
+    expect(created.status).toBe(201);
+    const id = created.body.referral.id as number;
+    const { context, page } = await signedInTab(c.rider.user.email, '/rider', PHONE);
+    const card = page.locator('[data-test="referral-consent-card"]');
+    await card.waitFor();
+    await card.locator(`[data-test="referral-consent-go-${id}"]`).click();
+    await page.waitForURL(`**/referrals/${id}/consent`);
+    await expect(page.locator('[data-test="referral-physio"]').innerText()).resolves.toBe(c.physio.user.displayName);
+    await expect(page.locator('[data-test="referral-consent-text"]').innerText()).resolves.toBe(currentConsent('share-with-physio')!.text);
+
+    // Agreeing needs the tick; the shared schema's message says so.
+    await page.locator('[data-test="referral-consent-submit"]').click();
+    await page.getByText('Please tick the box to agree').waitFor();
+    await page.locator('[data-test="referral-consent-agree"]').click();
+    await page.locator('[data-test="referral-consent-submit"]').click();
+    await page.locator('[data-test="referral-consent-done"]').waitFor();
+    expect((await c.physio.get('/api/physio/referrals').expect(200)).body.referrals.map((r: { id: number }) => r.id)).toContain(id);
+
+    const withdraw = page.locator('[data-test^="withdraw-consent-"]').first();
+    await withdraw.click();
+    await page.locator('[data-test^="withdraw-consent-confirm-"]').first().click();
+    await page.locator('[data-test="referral-consent-withdrawn"]').waitFor();
+    expect((await c.physio.get('/api/physio/referrals').expect(200)).body.referrals.map((r: { id: number }) => r.id)).not.toContain(id);
+    await c.physio.get(`/api/physio/referrals/${id}/case`).expect(404);
+    await context.close();
+  });
+
   it('lets a physio accept a referral, open the shared case and answer with limits', async () => {
     const c = await caseOnStepOne(saddlestep.app);
     const id = await sharedReferral(c);
