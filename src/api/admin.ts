@@ -54,6 +54,8 @@ const adminPaymentSchema = z.object({
   stripeChargeId: z.string().nullable(),
 });
 export type AdminPayment = z.infer<typeof adminPaymentSchema>;
+const refundedPaymentSchema = adminPaymentSchema.pick({ id: true, status: true, amountMinor: true, refundedMinor: true, currency: true });
+export type RefundedPayment = z.infer<typeof refundedPaymentSchema>;
 const paymentPageSchema = z.object({ payments: z.array(adminPaymentSchema), ...pageOf });
 export type PaymentPage = z.infer<typeof paymentPageSchema>;
 
@@ -112,8 +114,9 @@ export const adminApi = {
   },
 
   payments: (page: number) => http.get(`/api/admin/payments${query({ page })}`, paymentPageSchema),
-  async refund(id: number, body: { amountMinor: number; reason: string }): Promise<AdminPayment> {
-    return (await http.post(`/api/admin/payments/${id}/refund`, body, z.object({ payment: adminPaymentSchema }))).payment;
+  /** Answers with the payment's new totals and status; the caller keeps the names it already shows. */
+  async refund(id: number, body: { amountMinor: number; reason: string }): Promise<RefundedPayment> {
+    return (await http.post(`/api/admin/payments/${id}/refund`, body, z.object({ payment: refundedPaymentSchema }))).payment;
   },
 
   audit: (q: AuditQuery) => http.get(`/api/admin/audit${query({ ...q })}`, auditPageSchema),

@@ -7,7 +7,7 @@ export interface AuditFilter {
 
 /**
  * The actions the server records (see server/services/*), with plain names for the filter.
- * Any other `domain.verb` can still be typed.
+ * Any other action can still be typed; the log matches from the start, so `intake` finds every intake action.
  */
 export const AUDIT_ACTIONS: { value: string; label: string }[] = [
   { value: 'intake.read', label: 'Intake opened' },
@@ -23,6 +23,10 @@ export const AUDIT_ACTIONS: { value: string; label: string }[] = [
   { value: 'auth.sign_in_failed', label: 'Sign-in failed' },
   { value: 'user.register', label: 'Account registered' },
   { value: 'payment.succeeded', label: 'Payment received' },
+  { value: 'payment.refund', label: 'Refund by the clinic' },
+  { value: 'user.update', label: 'Account changed by an admin' },
+  { value: 'clinic.settings', label: 'Clinic policy saved' },
+  { value: 'account.export', label: 'Rider downloaded their data' },
 ];
 
 /** A short reading of a browser's user-agent string: the full text stays in the tooltip. */
