@@ -6,7 +6,6 @@
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
-import { fileURLToPath } from 'node:url';
 import { randomUUID } from 'node:crypto';
 import type { Socket } from 'socket.io-client';
 import { startLocalServices } from '../stack/services';
@@ -14,7 +13,6 @@ import { freePort } from '../stack/net';
 import { openClient, runLoad, type LoadResult } from './chat-load';
 import { startEchoServer } from './echo-baseline';
 
-const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
 const rooms = Number(process.argv[2] ?? 20);
 const perRoom = Number(process.argv[3] ?? 50);
 const tmp = fs.mkdtempSync(path.join(os.tmpdir(), 'saddlestep-bench-'));

@@ -13,6 +13,7 @@ import { payForConsultation } from '../services/payments';
 import { cancelConsultation } from '../services/refunds';
 import { actorFromRequest } from '../services/audit';
 import { sendBookingConfirmation } from '../mail/booking-mails';
+import { physioHasConsentedReferral } from '../services/access';
 import { scheduleBookingReminder } from '../services/booking-jobs';
 
 function idFrom(raw: unknown): number {
@@ -48,7 +49,12 @@ export function createConsultationController(ctx: AppContext) {
   };
 
   const show: RequestHandler = async (req, res) => {
-    const consultation = await findOwnConsultation(req.user!, idFrom(req.params.id));
+    const user = req.user!;
+    const id = idFrom(req.params.id);
+    // A referred physio sits in as a third party; everyone else must be the rider or the fitter.
+    const referred = user.role === 'physio' ? await Consultation.findByPk(id) : null;
+    if (user.role === 'physio' && !(referred && (await physioHasConsentedReferral(user.id, referred.riderId)))) throw notFound('That consultation');
+    const consultation = referred ?? (await findOwnConsultation(user, id));
     res.json({ consultation: await present(consultation) });
   };
 

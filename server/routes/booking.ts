@@ -19,7 +19,7 @@ export function createBookingRouter(ctx: AppContext): Router {
   router.get('/payments/test-cards', requireRole('rider'), consultations.testCards);
   router.post('/consultations', requireRole('rider'), validateBody(holdSlotSchema), consultations.hold);
   router.get('/consultations', requireRole('rider', 'fitter'), consultations.list);
-  router.get('/consultations/:id', requireRole('rider', 'fitter'), consultations.show);
+  router.get('/consultations/:id', requireRole('rider', 'fitter', 'physio'), consultations.show);
   router.get('/consultations/:id/cancellation-terms', requireRole('rider', 'fitter'), consultations.terms);
   router.post('/consultations/:id/payment', requireRole('rider'), validateBody(paymentSchema), consultations.pay);
   router.post('/consultations/:id/reschedule', requireRole('rider', 'fitter'), validateBody(rescheduleSchema), consultations.move);

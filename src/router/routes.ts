@@ -60,7 +60,7 @@ export const routes: RouteRecordRaw[] = [
   { path: '/consultations/:id(\\d+)/pay', name: ROUTE.checkout, component: () => import('@/views/CheckoutView.vue'), meta: { roles: ['rider'], title: 'Pay for your session' } },
   { path: '/consultations/:id(\\d+)', name: ROUTE.consultation, component: () => import('@/views/ConsultationView.vue'), meta: { roles: ['rider', 'fitter'], title: 'Your session' } },
   // The live session: chat for both, and the fitter's workspace beside it; then the rider's plan.
-  { path: '/consultations/:id(\\d+)/room', name: ROUTE.sessionRoom, component: () => import('@/views/SessionRoomView.vue'), meta: { roles: ['rider', 'fitter'], title: 'Session room' } },
+  { path: '/consultations/:id(\\d+)/room', name: ROUTE.sessionRoom, component: () => import('@/views/SessionRoomView.vue'), meta: { roles: ['rider', 'fitter', 'physio'], title: 'Session room' } },
   { path: '/plan', name: ROUTE.myPlan, component: () => import('@/views/MyPlanView.vue'), meta: { roles: ['rider'], title: 'My plan' } },
   // After rides on a step: the check-in; referrals to a physio, with the rider's agreement first.
   { path: '/plan/check-in', name: ROUTE.checkIn, component: () => import('@/views/CheckInView.vue'), meta: { roles: ['rider'], title: 'Check-in' } },

@@ -170,6 +170,12 @@ describe('check-ins, referrals and physio limits in the browser', () => {
     await expect(answer.innerText()).resolves.toContain('cleat rotation excluded');
     const inputs = await c.fitter.get(`/api/consultations/${c.consultation.id}/plan-inputs?bikeId=${c.bikeId}`).expect(200);
     expect(inputs.body.physio).toMatchObject({ stepCaps: { saddleHeight: 1 }, excludedParameters: ['cleatRotation'] });
+
+    // The physio joins the consultation room as a third party and can write to both.
+    await page.locator('[data-test="join-room"]').click();
+    await page.waitForURL(`**/consultations/${c.consultation.id}/room`);
+    await page.locator('[data-test="session-room"]').waitFor();
+    await expect(page.locator('.room__with').innerText()).resolves.toContain(c.rider.user.displayName);
     await context.close();
   });
 

@@ -60,7 +60,7 @@ const routes: { path: () => string; expect: Record<Who, number> }[] = [
   { path: () => `/api/intakes/${ids.intake}`, expect: { owner: 200, assigned: 200, referred: 200, riderX: 404, fitterX: 404, physioX: 404, admin: 403 } },
   { path: () => `/api/uploads/${ids.sharedUpload}/file`, expect: { owner: 200, assigned: 200, referred: 200, riderX: 404, fitterX: 404, physioX: 404, admin: 403 } },
   { path: () => `/api/uploads/${ids.privateUpload}/thumbnail`, expect: { owner: 200, assigned: 200, referred: 404, riderX: 404, fitterX: 404, physioX: 404, admin: 403 } },
-  { path: () => `/api/consultations/${ids.consultation}`, expect: { owner: 200, assigned: 200, referred: 403, riderX: 404, fitterX: 404, physioX: 403, admin: 403 } },
+  { path: () => `/api/consultations/${ids.consultation}`, expect: { owner: 200, assigned: 200, referred: 200, riderX: 404, fitterX: 404, physioX: 404, admin: 403 } },
   { path: () => `/api/consultations/${ids.consultation}/case`, expect: { owner: 403, assigned: 200, referred: 403, riderX: 403, fitterX: 404, physioX: 403, admin: 403 } },
   { path: () => `/api/consultations/${ids.consultation}/notes`, expect: { owner: 403, assigned: 200, referred: 403, riderX: 403, fitterX: 404, physioX: 403, admin: 403 } },
   { path: () => `/api/consultations/${ids.consultation}/check-ins`, expect: { owner: 403, assigned: 200, referred: 200, riderX: 403, fitterX: 404, physioX: 404, admin: 403 } },

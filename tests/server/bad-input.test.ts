@@ -1,4 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { Op } from 'sequelize';
 import { User } from '@server/models';
 import type { SaddlestepApp } from '@server/app';
 import { browserLikeAgent, startTestApp } from '../support/app';
@@ -14,9 +15,12 @@ afterAll(async () => {
 
 const valid = () => ({ email: uniqueEmail('bad'), password: TEST_PASSWORD, displayName: 'Avery Test', role: 'rider', timeZone: 'Europe/Paris' });
 
+/** Accounts this file could have created (other test files run beside it and add their own). */
+const ourAccounts = () => User.count({ where: { email: { [Op.startsWith]: 'bad-' } } });
+
 async function expectRefusedWithoutWrite(body: unknown, expected: { status?: number; field?: string; message?: RegExp }) {
   const client = await browserLikeAgent(saddlestep.app);
-  const before = await User.count();
+  const before = await ourAccounts();
   // Sent as raw JSON text so bodies like `42` or `null` reach the server exactly as written.
   const res = await client.agent.post('/api/auth/register').set('X-CSRF-Token', client.csrfToken).set('Content-Type', 'application/json').send(JSON.stringify(body));
   expect(res.status).toBe(expected.status ?? 400);
@@ -24,7 +28,7 @@ async function expectRefusedWithoutWrite(body: unknown, expected: { status?: num
   expect(JSON.stringify(res.body)).not.toMatch(/sequelize|SqlError|stack|at \w+ \(/i);
   if (expected.field) expect(res.body.error.fields?.[expected.field]).toEqual(expect.any(String));
   if (expected.message) expect(res.body.error.message).toMatch(expected.message);
-  expect(await User.count()).toBe(before);
+  expect(await ourAccounts()).toBe(before);
   return res;
 }
 

@@ -101,13 +101,14 @@ describe('POST /api/consultations (holding a slot)', () => {
 
   it('refuses bad input with 400 and writes nothing', async () => {
     const rider = await riderReadyToBook(saddlestep.app);
-    const before = await Consultation.count();
+    // Only this rider's bookings: other test files create their own at the same time.
+    const before = await Consultation.count({ where: { riderId: rider.user.id } });
     for (const body of [{}, { fitterId: 'x', startsAt: 'tomorrow' }, { fitterId: 1, startsAt: '2027-01-01T09:00:00Z', extra: 1 }, { fitterId: -3, startsAt: "'; DROP TABLE consultations; --" }]) {
       const res = await rider.post('/api/consultations', body);
       expect(res.status).toBe(400);
       expect(res.body.error.message).toEqual(expect.any(String));
     }
-    expect(await Consultation.count()).toBe(before);
+    expect(await Consultation.count({ where: { riderId: rider.user.id } })).toBe(before);
   });
 
   it('is for riders only', async () => {

@@ -28,7 +28,7 @@ const GUARDED_ROUTES: { method: Method; path: string; roles: Role[]; body?: obje
   { method: 'get', path: '/api/payments/test-cards', roles: ['rider'] },
   { method: 'post', path: '/api/consultations', roles: ['rider'], body: {} },
   { method: 'get', path: '/api/consultations', roles: ['rider', 'fitter'] },
-  { method: 'get', path: '/api/consultations/4294967295', roles: ['rider', 'fitter'] },
+  { method: 'get', path: '/api/consultations/4294967295', roles: ['rider', 'fitter', 'physio'] },
   { method: 'get', path: '/api/consultations/4294967295/cancellation-terms', roles: ['rider', 'fitter'] },
   { method: 'post', path: '/api/consultations/4294967295/payment', roles: ['rider'], body: {} },
   { method: 'post', path: '/api/consultations/4294967295/reschedule', roles: ['rider', 'fitter'], body: {} },
