@@ -78,7 +78,7 @@ export async function respondToReferral(ctx: AppContext, physio: Express.User, i
       { status: 'closed', closedAt: new Date(), decision: input.decision, responseNote: input.note, limits: input.decision === 'continue_with_limits' ? (input.limits ?? null) : null, holdReason: input.decision === 'hold' ? (input.holdReason ?? null) : null },
       { transaction },
     );
-    if (input.decision === 'hold') await holdRiderPlans(ctx, referral.riderId, `Paused by the physiotherapist: ${input.holdReason}`, physio.id, transaction);
+    if (input.decision === 'hold') await holdRiderPlans(ctx, referral.riderId, `Paused by the physiotherapist: ${input.holdReason}`, physio.id, transaction); // reason ≤ 400 chars, so the prefix fits in 500
     else await clearRiderHold(ctx, referral.riderId, 'physiotherapist says the plan may go on', physio.id, transaction);
     await recordAudit(actor, { action: 'referral.respond', subjectType: 'referral', subjectId: referral.id, subjectUserId: referral.riderId, detail: { decision: input.decision } }, { transaction });
   });

@@ -6,7 +6,8 @@ import { AppError, conflict, notFound, badRequest } from '../errors';
 import { Consultation, Plan, PlanStep, SetupSnapshot } from '../models';
 import type { AppContext } from '../context';
 import { transitionConsultation } from './consultation-states';
-import { buildPlanInputs, todayUtc } from './plan-inputs';
+import { buildPlanInputs } from './plan-inputs';
+import { latestTodayAnywhere } from '@shared/rider';
 import { recordSnapshot } from './setup-history';
 import { recordAudit, type AuditActor } from './audit';
 import { postMessage } from './chat';
@@ -113,7 +114,7 @@ export async function applyStep(ctx: AppContext, rider: Express.User, planId: nu
       if (blocker) throw conflict(blocker);
     }
     if (appliedOn < row.earliestDate) throw badRequest(`This step can be made from ${row.earliestDate}, after the adaptation period.`, { appliedOn: `Choose ${row.earliestDate} or later.` });
-    if (appliedOn > todayUtc()) throw badRequest('The date cannot be in the future.', { appliedOn: 'Choose today or an earlier day.' });
+    if (appliedOn > latestTodayAnywhere()) throw badRequest('The date cannot be in the future.', { appliedOn: 'Choose today or an earlier day.' });
 
     const adaptationDays = plan.plan.limits.adaptationDays;
     const snapshot = await recordSnapshot(plan.bikeId, step.setupAfter, plan.kind === 'revert' ? 'revert' : 'step', rider.id, {

@@ -27,7 +27,7 @@ export const auditQuerySchema = z.strictObject({
   action: z.string().trim().max(64).regex(/^[a-z_.]*$/, 'Actions look like intake.read.').optional(),
   /** Rows with a smaller id (for paging back). */
   beforeId: z.coerce.number().int().positive().optional(),
-  limit: z.coerce.number().int().min(1).max(200).default(50),
+  limit: z.coerce.number({ error: 'The limit is a number.' }).int().min(1, 'Ask for at least 1 row.').max(200, 'Ask for at most 200 rows.').default(50),
 });
 
 /** DELETE /api/rider/account — the password again, so a left-open session cannot erase an account. */

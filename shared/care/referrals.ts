@@ -42,7 +42,7 @@ export const createReferralSchema = z.strictObject({
 
 /** POST /api/rider/referrals/:id/consent */
 export const referralConsentSchema = z.strictObject({
-  version: z.string().max(20),
+  version: z.string({ error: 'Say which consent version you read.' }).max(20, 'Unknown consent version.'),
   agreed: z.literal(true, { error: 'Please tick the box to agree to share your information with the physiotherapist.' }),
 });
 
@@ -54,9 +54,15 @@ export const physioResponseSchema = z
     note: text('clinical note', 4000),
     decision: z.enum(PHYSIO_DECISIONS, { error: 'Choose continue, continue with limits, or hold the plan.' }),
     limits: physioLimitsSchema.omit({ hold: true, clearedRedFlags: true, note: true }).optional(),
-    holdReason: z.string().trim().max(500).optional(),
+    holdReason: z
+      .string()
+      .trim()
+      .max(400, 'Keep the hold reason under 400 characters.')
+      .refine((t) => !/[<>]/.test(t) && !/[^\P{Cc}\t\n\r]/u.test(t), 'The hold reason cannot contain < or > or control characters.')
+      .optional(),
   })
   .refine((r) => r.decision !== 'continue_with_limits' || r.limits !== undefined, { message: 'Set the limits the plan must keep.', path: ['limits'] })
-  .refine((r) => r.decision !== 'hold' || (r.holdReason ?? '').length > 0, { message: 'Say why the plan is on hold; the rider and fitter will see it.', path: ['holdReason'] });
+  .refine((r) => r.decision !== 'hold' || (r.holdReason ?? '').length > 0, { message: 'Say why the plan is on hold; the rider and fitter will see it.', path: ['holdReason'] })
+  .refine((r) => r.decision === 'continue_with_limits' || r.limits === undefined, { message: 'Limits go with "continue with limits" only.', path: ['limits'] });
 
 export const clearHoldSchema = z.strictObject({ note: text('note', 1000) });

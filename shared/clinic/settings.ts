@@ -10,12 +10,13 @@ import { policySchema } from '../fit/planner/schemas';
  */
 export const clinicSettingsSchema = z.strictObject({
   /** Fee offered to a new fitter profile, in minor units of `currency`. */
-  defaultFeeMinor: z.number().int().min(0).max(10_000_000).default(9000),
-  currency: z.enum(CURRENCIES).default('EUR'),
-  cancellation: cancellationPolicySchema.default(cancellationPolicySchema.parse({})),
+  defaultFeeMinor: z.number({ error: 'Enter the default fee.' }).int('Use whole minor units.').min(0, 'A fee cannot be negative.').max(10_000_000, 'That fee is too high.').default(9000),
+  currency: z.enum(CURRENCIES, { error: 'Choose a currency from the list.' }).default('EUR'),
+  // Defaults are made fresh on every parse so no caller can change another's nested objects.
+  cancellation: cancellationPolicySchema.default(() => cancellationPolicySchema.parse({})),
   /** Minutes a slot stays held while the rider pays (common practice for ticketing/booking, 5–15). */
-  holdMinutes: z.number().int().min(2).max(30).default(10),
-  planner: policySchema.default(policySchema.parse({})),
+  holdMinutes: z.number({ error: 'Enter the hold time in minutes.' }).int('Use whole minutes.').min(2, 'Hold a slot for at least 2 minutes.').max(30, 'Hold a slot for at most 30 minutes.').default(10),
+  planner: policySchema.default(() => policySchema.parse({})),
 });
 export type ClinicSettings = z.infer<typeof clinicSettingsSchema>;
 export type ClinicSettingsInput = z.input<typeof clinicSettingsSchema>;

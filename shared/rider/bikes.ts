@@ -27,11 +27,19 @@ export const BIKE_LIMITS = { nameMax: 60, notesMax: 500, cleatNotesMax: 500, bik
 
 const bikeName = plainText('bike name', BIKE_LIMITS.nameMax).pipe(z.string().min(1, 'Give the bike a name, like "Blue road bike".'));
 
-/** Today or earlier, so a snapshot is never dated in the future. */
+/**
+ * Today or earlier, so a snapshot is never dated in the future. "Today" is the latest calendar day
+ * anywhere (UTC+14), so a rider east of UTC can enter their own local date.
+ */
+/** The calendar date in the most-advanced time zone (UTC+14). */
+export function latestTodayAnywhere(now = Date.now()): string {
+  return new Date(now + 14 * 3_600_000).toISOString().slice(0, 10);
+}
+
 const takenOn = z
   .string({ error: 'Enter the date you measured it, like 2026-03-01.' })
   .pipe(isoDateSchema)
-  .refine((d) => d <= new Date().toISOString().slice(0, 10), 'The date cannot be in the future.');
+  .refine((d) => d <= latestTodayAnywhere(), 'The date cannot be in the future.');
 
 function snapshotShape<U extends 'mm' | 'in'>(unit: U) {
   return strictShape({

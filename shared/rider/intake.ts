@@ -49,7 +49,10 @@ export function questionsToAsk(answers: Partial<Record<RedFlagId, boolean>>, sym
 const region = z.enum(BODY_REGIONS, { error: 'Choose a body area from the map.' });
 const pain = z.number({ error: 'Set the pain from 0 to 10.' }).int('Pain is a whole number from 0 to 10.').min(0, 'Pain is from 0 to 10.').max(10, 'Pain is from 0 to 10.');
 const kind = z.enum(PAIN_KINDS, { error: 'Choose what the pain feels like.' });
-const timing = z.array(z.enum(PAIN_TIMINGS, { error: 'Choose when it hurts from the list.' }), { error: 'Say when it hurts.' }).max(PAIN_TIMINGS.length, 'Choose each time only once.');
+const timing = z
+  .array(z.enum(PAIN_TIMINGS, { error: 'Choose when it hurts from the list.' }), { error: 'Say when it hurts.' })
+  .max(PAIN_TIMINGS.length, 'Choose each time only once.')
+  .refine((t) => new Set(t).size === t.length, 'Choose each time only once.');
 const durationDays = z.number({ error: 'Say how long it has lasted.' }).int('Say how long it has lasted in whole days.').min(0, 'Say how long it has lasted.').max(36_500, 'Say how long it has lasted (at most 100 years).');
 const yesNo = z.boolean({ error: 'Answer yes or no.' });
 

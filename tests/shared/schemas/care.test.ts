@@ -151,3 +151,26 @@ describe('clearHoldSchema and referral labels', () => {
     expect(Object.keys(REFERRAL_STATUS_LABELS)).toEqual([...REFERRAL_STATUSES]);
   });
 });
+
+describe('fixes from the schema review', () => {
+  it('refuses a repeated pain timing, limits outside continue-with-limits, and markup in a hold reason', async () => {
+    const { symptomSubmitSchema } = await import('@shared/rider');
+    const { physioResponseSchema } = await import('@shared/care');
+    expect(symptomSubmitSchema.safeParse({ region: 'neck', pain: 2, kind: 'ache', timing: ['during-ride', 'during-ride'], durationDays: 3 }).success).toBe(false);
+    expect(physioResponseSchema.safeParse({ note: 'ok', decision: 'continue', limits: { capFactor: 0.5 } }).success).toBe(false);
+    expect(physioResponseSchema.safeParse({ note: 'ok', decision: 'hold', holdReason: '<b>x</b>' }).success).toBe(false);
+  });
+
+  it('accepts the calendar date of the most advanced time zone as today', async () => {
+    const { latestTodayAnywhere } = await import('@shared/rider');
+    expect(latestTodayAnywhere(Date.parse('2026-12-02T11:00:00Z'))).toBe('2026-12-03');
+    expect(latestTodayAnywhere(Date.parse('2026-12-02T09:00:00Z'))).toBe('2026-12-02');
+  });
+
+  it('gives each parse of the clinic settings its own nested defaults', async () => {
+    const { clinicSettingsSchema } = await import('@shared/clinic');
+    const a = clinicSettingsSchema.parse({});
+    const b = clinicSettingsSchema.parse({});
+    expect(a.planner.stepCaps).not.toBe(b.planner.stepCaps);
+  });
+});
