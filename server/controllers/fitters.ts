@@ -16,7 +16,8 @@ export const list: RequestHandler = async (_req, res) => {
 
 export const slots: RequestHandler = async (req, res) => {
   const id = parseId(req.params.id as string);
-  if (!id) throw notFound('That fitter');
+  // A fitter sees only their own calendar (to move a session); riders see any published fitter's.
+  if (!id || (req.user!.role === 'fitter' && req.user!.id !== id)) throw notFound('That fitter');
   const range = parseOrThrow(slotRangeSchema, req.query);
   const { fitter, profile } = await getPublishedFitter(id);
   res.json({ fitter: presentFitterCard(fitter, profile), slots: await slotsForFitter(fitter, profile, range.from, range.to) });

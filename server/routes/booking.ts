@@ -12,7 +12,7 @@ export function createBookingRouter(ctx: AppContext): Router {
   const consultations = createConsultationController(ctx);
 
   router.get('/fitters', requireRole('rider'), fitters.list);
-  router.get('/fitters/:id/slots', requireRole('rider'), fitters.slots);
+  router.get('/fitters/:id/slots', requireRole('rider', 'fitter'), fitters.slots);
   router.get('/fitter/settings', requireRole('fitter'), fitters.ownSettings);
   router.put('/fitter/settings', requireRole('fitter'), validateBody(fitterSettingsSchema), fitters.saveSettings);
 

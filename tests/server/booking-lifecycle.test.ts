@@ -159,3 +159,19 @@ describe('booking reminders', () => {
     expect((await Consultation.findByPk(held.body.consultation.id))!.status).toBe('expired');
   });
 });
+
+describe('the fitter moves a session', () => {
+  it('lists only their own calendar and may move a booking even inside the window', async () => {
+    const { fitter, id } = await paidBooking(5);
+    const { browserLikeAgent } = await import('../support/app');
+    const client = await browserLikeAgent(saddlestep.app);
+    const signIn = await client.post('/api/auth/sign-in', { email: fitter.email, password: 'correct-horse-battery' }).expect(200);
+    client.csrfToken = signIn.body.csrfToken;
+    const day = new Date(Date.now() + 2 * 86_400_000).toISOString().slice(0, 10);
+    const slots = await client.get(`/api/fitters/${fitter.id}/slots?from=${day}&to=${day}`).expect(200);
+    const { fitter: other } = await buildFitter();
+    await client.get(`/api/fitters/${other.id}/slots?from=${day}&to=${day}`).expect(404);
+    const moved = await client.post(`/api/consultations/${id}/reschedule`, { startsAt: slots.body.slots[0].start }).expect(200);
+    expect(moved.body.consultation.startsAt).toBe(slots.body.slots[0].start);
+  });
+});

@@ -22,7 +22,7 @@ const GUARDED_ROUTES: { method: Method; path: string; roles: Role[]; body?: obje
   { method: 'post', path: '/api/admin/accounts/4294967295/decision', roles: ['admin'], body: { decision: 'approve' } },
   // Booking
   { method: 'get', path: '/api/fitters', roles: ['rider'] },
-  { method: 'get', path: '/api/fitters/4294967295/slots?from=2030-01-01&to=2030-01-02', roles: ['rider'] },
+  { method: 'get', path: '/api/fitters/4294967295/slots?from=2030-01-01&to=2030-01-02', roles: ['rider', 'fitter'] },
   { method: 'get', path: '/api/fitter/settings', roles: ['fitter'] },
   { method: 'put', path: '/api/fitter/settings', roles: ['fitter'], body: {} },
   { method: 'get', path: '/api/payments/test-cards', roles: ['rider'] },
