@@ -189,10 +189,63 @@ describe('reverts', () => {
     expect(validatePlan(plan, inputs(over))).toEqual([]);
   });
 
-  it('allows that revert despite severe pain, but not with an urgent red flag or a physio hold', () => {
-    expect(buildPlan(inputs({ target: earlier, history, currentPain: 8 })).steps[0]?.kind).toBe('revert');
-    expect(buildPlan(inputs({ target: earlier, history, redFlagLevel: 'urgent' })).status).toBe('refused');
-    expect(buildPlan(inputs({ target: earlier, history, physio: { hold: true } })).status).toBe('refused');
+  it('refuses that revert, like any change, with severe pain, an unreviewed or urgent red flag, or a physio hold (our rule)', () => {
+    for (const [over, code] of [
+      [{ currentPain: 8 }, 'severe-pain'],
+      [{ redFlagLevel: 'physio-soon' as const }, 'red-flag'],
+      [{ redFlagLevel: 'urgent' as const }, 'urgent-red-flag'],
+      [{ physio: { hold: true } }, 'physio-hold'],
+    ] as const) {
+      const plan = buildPlan(inputs({ target: earlier, history, ...over }));
+      expect(plan).toMatchObject({ status: 'refused', steps: [] });
+      expect(plan.reasons[0]?.code).toBe(code);
+    }
+    expect(buildPlan(inputs({ target: earlier, history, currentPain: 8 })).reasons[0]?.message).toMatch(/stop riding and see a physiotherapist/);
+  });
+
+  it('still goes back in one step at moderate pain, or with a cleared red flag, within the physio limits', () => {
+    expect(buildPlan(inputs({ target: earlier, history, currentPain: 5 })).steps.map((s) => s.kind)).toEqual(['revert']);
+    const cleared = { target: earlier, history, redFlagLevel: 'physio-soon' as const, physio: { clearedRedFlags: true, stepCaps: { saddleHeight: 12 } } };
+    expect(buildPlan(inputs(cleared)).steps.map((s) => s.kind)).toEqual(['revert']);
+  });
+
+  it('splits a revert over the physio caps into capped steps, saying why', () => {
+    const over = { target: earlier, history, physio: { stepCaps: { saddleHeight: 2 } } };
+    const plan = buildPlan(inputs(over));
+    expect(plan.status).toBe('reaches-target');
+    expect(deltas(plan, 'saddleHeight')).toEqual([2, 2, 2, 2, 2, 2]);
+    expect(plan.reasons.map((r) => r.code)).toEqual(['revert-split-by-physio']);
+    expect(validatePlan(plan, inputs(over))).toEqual([]);
+    // A cap factor below 1 limits every parameter: 0.5 × the 3 mm clinic cap.
+    expect(deltas(buildPlan(inputs({ target: earlier, history, physio: { capFactor: 0.5 } })), 'saddleHeight')[0]).toBe(1.5);
+  });
+
+  it('refuses the audit probe (pain 9, unreviewed physio-soon flag, physio caps 1 mm × 0.2) and finds a forged one-step revert', () => {
+    const far = { ...BASE, saddleHeight: 770, reach: 560, crankLength: 165 };
+    const over = {
+      target: far, currentPain: 9, redFlagLevel: 'physio-soon' as const,
+      physio: { stepCaps: { saddleHeight: 1 }, capFactor: 0.2 },
+      history: [{ setup: far, from: '2024-12-01', to: '2025-02-01', rides: 20 }],
+    };
+    const plan = buildPlan(inputs(over));
+    expect(plan).toMatchObject({ status: 'refused', steps: [] });
+    const forged: Plan = {
+      ...plan, status: 'reaches-target', finalSetup: far, reasons: [],
+      steps: [{
+        index: 1, kind: 'revert', group: null, setupAfter: far, earliestDate: '2025-03-01', minRides: 4, checkInDue: '2025-03-15', instructions: [],
+        changes: [
+          { parameter: 'saddleHeight', from: 740, to: 770, delta: 30, coupledTo: null },
+          { parameter: 'reach', from: 520, to: 560, delta: 40, coupledTo: null },
+          { parameter: 'crankLength', from: 172.5, to: 165, delta: -7.5, coupledTo: null },
+        ],
+      }],
+    };
+    const codes = validatePlan(forged, inputs(over)).map((x) => `${x.code}${x.parameter ? `:${x.parameter}` : ''}`);
+    expect(codes).toEqual(expect.arrayContaining(['must-refuse', 'revert-not-allowed', 'physio-cap:saddleHeight', 'physio-cap:reach', 'physio-cap:crankLength']));
+    // Without the pain and the flag, the physio caps alone still forbid the one step.
+    const calm = { ...over, currentPain: 2, redFlagLevel: 'none' as const };
+    expect(validatePlan(forged, inputs(calm)).map((x) => x.code)).not.toContain('must-refuse');
+    expect(validatePlan(forged, inputs(calm)).map((x) => x.code)).toContain('physio-cap');
   });
 
   it.each([
@@ -206,10 +259,11 @@ describe('reverts', () => {
     expect(deltas(plan, 'saddleHeight')).toEqual([3, 3, 3, 3]);
   });
 
-  it('caps a revert that would move a physio-excluded parameter', () => {
+  it('stops a revert that would move a physio-excluded parameter at the exclusion', () => {
     const plan = buildPlan(inputs({ target: earlier, history, physio: { excludedParameters: ['saddleHeight'] } }));
     expect(plan.steps).toEqual([]);
     expect(plan.status).toBe('stopped-at-bound');
+    expect(plan.reasons.map((r) => r.code)).toEqual(['revert-excluded-by-physio', 'excluded-by-physio']);
   });
 });
 

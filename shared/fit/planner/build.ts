@@ -8,7 +8,7 @@ import { setupSchema, type Setup } from '../setup/schemas';
 import { DEFAULT_GROUP_ORDER, EPS, MAX_STEPS } from './constants';
 import { stepInstructions } from './instructions';
 import { effectiveLimits, type EffectiveLimits } from './limits';
-import { oneStepRevertSource } from './revert';
+import { knownSetupSource, physioRevertBlock } from './revert';
 import { planInputSchema, type Plan, type PlanChange, type PlanInput, type PlanInputParsed, type PlanReason, type PlanStep } from './schemas';
 
 type Moves = Partial<Record<SetupParameter, number>>;
@@ -224,9 +224,16 @@ function revertPlan(input: PlanInputParsed, limits: EffectiveLimits): Plan {
 /** Builds a plan from parsed input. */
 export function buildPlanFrom(input: PlanInputParsed): Plan {
   const limits = effectiveLimits(input);
-  if (oneStepRevertSource(input, limits)) return revertPlan(input, limits);
+  // Refusals come first: they hold for a revert to a known setup too (see revert.ts).
   if (limits.refusal) return refusedPlan(input, limits, limits.refusal);
-  const reasons: PlanReason[] = [];
+  // A note kept even when the target is reached: why a known setup is not restored in one step.
+  const notes: PlanReason[] = [];
+  if (knownSetupSource(input, limits)) {
+    const block = physioRevertBlock(input, limits);
+    if (!block) return revertPlan(input, limits);
+    notes.push(block);
+  }
+  const reasons: PlanReason[] = [...notes];
   const ctx: Ctx = { input, limits, goal: input.target, steps: [] };
   initialGoal(ctx, reasons);
   const order = [...new Set([...(input.groupOrder ?? []), ...DEFAULT_GROUP_ORDER])];
@@ -253,7 +260,7 @@ export function buildPlanFrom(input: PlanInputParsed): Plan {
     target: input.target,
     finalSetup: current,
     steps: ctx.steps,
-    reasons: reaches ? [] : reasons,
+    reasons: reaches ? notes : reasons,
     limits: publicLimits(limits),
   };
 }
@@ -265,7 +272,8 @@ export function buildPlanFrom(input: PlanInputParsed): Plan {
  * one parameter group (a crank or cleat change carries its saddle compensation), stays within
  * the per-step and window caps, and is spaced by the adaptation period. The plan ends exactly at
  * the target, or stops at a stated bound with the reasons. A target that is a recent, fully
- * ridden setup in `history` is reached in one revert step (see revert.ts).
+ * ridden setup in `history` is reached in one revert step when no refusal applies and the move
+ * keeps within the physio's limits (see revert.ts).
  */
 export function buildPlan(input: PlanInput): Plan {
   return buildPlanFrom(parseInput(planInputSchema, input, 'plan'));

@@ -14,10 +14,14 @@ export interface EffectiveLimits {
   revertRecencyDays: number;
   painFactor: number;
   excluded: Set<SetupParameter>;
-  /** Why no forward step may be planned, or null. */
+  /**
+   * The physio's limits on a one-step revert, per parameter (Infinity where they set none): their
+   * own step cap, and with a cap factor below 1 the clinic cap times that factor; 0 when excluded.
+   * Pain does not enter: a revert that passes the refusal rules goes back to a setup the body knows.
+   */
+  revertCaps: Caps;
+  /** Why no step at all may be planned (forward or revert), or null. */
   refusal: PlanReason | null;
-  /** Why not even a revert may be planned (urgent red flag, physio hold), or null. */
-  revertRefusal: PlanReason | null;
 }
 
 /**
@@ -46,37 +50,16 @@ export function effectiveLimits(input: PlanInputParsed): EffectiveLimits {
   const painFactor = painCapFactor(input.currentPain);
   const factor = painFactor * (physio?.capFactor ?? 1);
   const excluded = excludedBy(physio);
+  const physioFactor = physio?.capFactor ?? 1;
   const stepCaps = {} as Caps;
   const windowCaps = {} as Caps;
+  const revertCaps = {} as Caps;
   for (const p of SETUP_PARAMETERS) {
     const physioCap = physio?.stepCaps[p] ?? Infinity;
     stepCaps[p] = excluded.has(p) ? 0 : Math.min(policy.stepCaps[p], physioCap) * factor;
     windowCaps[p] = excluded.has(p) ? 0 : policy.windowCaps[p] * factor;
-  }
-  let refusal: PlanReason | null = null;
-  let revertRefusal: PlanReason | null = null;
-  if (input.redFlagLevel === 'urgent') {
-    revertRefusal = {
-      code: 'urgent-red-flag',
-      message: 'A warning sign needs urgent medical care: stop riding and seek care today. No changes are planned.',
-      parameters: [],
-    };
-  } else if (physio?.hold) {
-    revertRefusal = { code: 'physio-hold', message: 'The physiotherapist has put the plan on hold.', parameters: [] };
-  }
-  if (revertRefusal) refusal = revertRefusal;
-  else if (input.redFlagLevel !== 'none' && !physio?.clearedRedFlags) {
-    refusal = {
-      code: 'red-flag',
-      message: 'A warning sign needs a physiotherapist first. The plan goes on once they have reviewed it.',
-      parameters: [],
-    };
-  } else if (input.currentPain >= SEVERE_PAIN) {
-    refusal = {
-      code: 'severe-pain',
-      message: `Pain of ${input.currentPain}/10 is severe: position changes wait until a physiotherapist has seen you (pain 7/10 or more).`,
-      parameters: [],
-    };
+    // A finite product only: Infinity × a factor below 1 would never limit anything.
+    revertCaps[p] = excluded.has(p) ? 0 : physioFactor < 1 ? Math.min(policy.stepCaps[p], physioCap) * physioFactor : physioCap;
   }
   return {
     stepCaps,
@@ -87,7 +70,39 @@ export function effectiveLimits(input: PlanInputParsed): EffectiveLimits {
     revertRecencyDays: policy.revertRecencyDays,
     painFactor,
     excluded,
-    refusal,
-    revertRefusal,
+    revertCaps,
+    refusal: refusalFor(input),
   };
+}
+
+/**
+ * Why no step may be planned, or null. The same rules hold for a revert to a known setup (our
+ * decision, see shared/README.md): with an urgent or unreviewed red flag, severe pain or a physio
+ * hold, the safe advice is to stop and see a clinician, not to change the bike in any direction.
+ */
+function refusalFor(input: PlanInputParsed): PlanReason | null {
+  const physio = input.physio;
+  if (input.redFlagLevel === 'urgent') {
+    return {
+      code: 'urgent-red-flag',
+      message: 'A warning sign needs urgent medical care: stop riding and seek care today. No changes are planned, not even a return to an earlier setup.',
+      parameters: [],
+    };
+  }
+  if (physio?.hold) return { code: 'physio-hold', message: 'The physiotherapist has put the plan on hold.', parameters: [] };
+  if (input.redFlagLevel !== 'none' && !physio?.clearedRedFlags) {
+    return {
+      code: 'red-flag',
+      message: 'A warning sign needs a physiotherapist first. No changes are planned, not even a return to an earlier setup, until they have reviewed it.',
+      parameters: [],
+    };
+  }
+  if (input.currentPain >= SEVERE_PAIN) {
+    return {
+      code: 'severe-pain',
+      message: `Pain of ${input.currentPain}/10 is severe (7/10 or more): stop riding and see a physiotherapist before any change to the bike, even going back to an earlier setup.`,
+      parameters: [],
+    };
+  }
+  return null;
 }

@@ -36,7 +36,8 @@ export function validatePlan(plan: unknown, inputs: PlanInput): PlanViolation[] 
   if (!exactlySame(p.baseline, input.baseline)) out.push(v('baseline-mismatch', 'The plan does not start from the baseline setup.'));
   if (!exactlySame(p.target, input.target)) out.push(v('target-mismatch', 'The plan is for a different target setup.'));
   const revertAllowed = oneStepRevertSource(input, limits) !== null;
-  if (limits.refusal && !revertAllowed && p.steps.length > 0) {
+  // The refusal rules hold for reverts too (see revert.ts).
+  if (limits.refusal && p.steps.length > 0) {
     out.push(v('must-refuse', `No steps may be planned: ${limits.refusal.message}`));
   }
   if (p.steps.length > MAX_STEPS) out.push(v('too-many-steps', `A plan has at most ${MAX_STEPS} steps.`));
@@ -57,7 +58,14 @@ export function validatePlan(plan: unknown, inputs: PlanInput): PlanViolation[] 
     }
     if (s.kind === 'revert') {
       if (!revertAllowed || p.steps.length !== 1 || !sameSetup(s.setupAfter, input.target)) {
-        out.push(v('revert-not-allowed', 'A one-step revert is allowed only to a setup ridden recently for a full adaptation period.', n));
+        out.push(v('revert-not-allowed', 'A one-step revert is allowed only to a setup ridden recently for a full adaptation period, within the physiotherapist\'s limits and when no refusal applies.', n));
+      }
+      // Checked on their own as well, so the server can name the physio limit a forged revert breaks.
+      for (const param of SETUP_PARAMETERS) {
+        const delta = Math.abs(s.setupAfter[param] - prev[param]);
+        if (!limits.excluded.has(param) && delta > limits.revertCaps[param] + EPS) {
+          out.push(v('physio-cap', `${param} moves ${delta.toFixed(2)} in one revert step, over the physiotherapist's limit of ${limits.revertCaps[param].toFixed(2)}.`, n, param));
+        }
       }
     } else {
       for (const param of SETUP_PARAMETERS) {
