@@ -1,4 +1,5 @@
 /** Clinically meaningful change on 0–10 scales. */
+import { requireRange } from '../errors';
 import type { Change, ChangeCategory } from './schemas';
 
 /**
@@ -14,6 +15,9 @@ export const MEANINGFUL_CHANGE = { points: 2, fraction: 0.3 } as const;
  * thresholds are applied to comfort, a 0–10 scale of the same shape [D].
  */
 export function compareScores(reference: number, current: number, higherIsWorse = true): Change {
+  // Both scales run 0–10; anything else is a mistake, never a score to compare.
+  requireRange('reference', reference, 0, 10);
+  requireRange('current', current, 0, 10);
   const delta = current - reference;
   const relative = reference > 0 ? delta / reference : null;
   const size = Math.abs(delta);

@@ -1,18 +1,26 @@
 /** Plane geometry on marked pixel points, with first-order sensitivities for uncertainty. */
-import { FitInputError } from '../errors';
+import { ensureFinite, FitInputError, requireFinite } from '../errors';
 import type { PixelPoint } from './schemas';
 
 /** Points closer than this (pixels) are treated as the same click. */
 export const MIN_POINT_SEPARATION_PX = 1;
 
-/** Distance between two points, pixels. */
-export function distance(a: PixelPoint, b: PixelPoint): number {
-  return Math.hypot(b.x - a.x, b.y - a.y);
+/** Throws FitInputError unless both coordinates of the point are finite numbers. */
+function requirePoint(name: string, p: PixelPoint): void {
+  requireFinite(`points.${name}.x`, p.x);
+  requireFinite(`points.${name}.y`, p.y);
+}
+
+/** Distance between two points, pixels. Throws FitInputError for a NaN or infinite coordinate. */
+export function distance(a: PixelPoint, b: PixelPoint, names: [string, string] = ['first', 'second']): number {
+  requirePoint(names[0], a);
+  requirePoint(names[1], b);
+  return ensureFinite('distance', Math.hypot(b.x - a.x, b.y - a.y));
 }
 
 export function requireApart(names: [string, string], a: PixelPoint, b: PixelPoint): number {
-  const d = distance(a, b);
-  if (!(d >= MIN_POINT_SEPARATION_PX)) {
+  const d = distance(a, b, names);
+  if (d < MIN_POINT_SEPARATION_PX) {
     throw new FitInputError(`points.${names[1]}`, `The ${names[0]} and ${names[1]} points coincide; mark them apart.`);
   }
   return d;
@@ -54,7 +62,7 @@ export function includedAngle(
   const gC = { x: -cy / c2, y: cx / c2 };
   const gB = { x: -(gA.x + gC.x), y: -(gA.y + gC.y) };
   const perPixelRad = Math.hypot(gA.x, gA.y) + Math.hypot(gC.x, gC.y) + Math.hypot(gB.x, gB.y);
-  return { degrees, degreesPerPixel: (perPixelRad * 180) / Math.PI };
+  return { degrees: ensureFinite('angle', degrees), degreesPerPixel: ensureFinite('angleUncertainty', (perPixelRad * 180) / Math.PI) };
 }
 
 

@@ -1,5 +1,5 @@
 /** Millimetres per pixel from a known length in the picture. */
-import { ensureFinite, parseInput } from '../errors';
+import { ensureFinite, parseInput, requireRange } from '../errors';
 import { requireApart } from './geometry';
 import { parseTyreSize } from './iso5775';
 import { scaleReferenceSchema, type ScaleReference, type ValueWithUncertainty } from './schemas';
@@ -22,6 +22,8 @@ export interface PhotoScale {
  */
 export function photoScale(reference: ScaleReference, clickPrecisionPx = 2): PhotoScale {
   const ref = parseInput(scaleReferenceSchema, reference, 'scale');
+  // The same bound as photoMeasurementInputSchema; a negative precision would give a negative ±.
+  requireRange('clickPrecisionPx', clickPrecisionPx, 0, 50, 'px');
   const px = requireApart(['scale start', 'scale end'], ref.from, ref.to);
   let length: number;
   let tolerance = 0;

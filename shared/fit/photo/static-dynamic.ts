@@ -46,7 +46,10 @@ export function dynamicToStaticKneeFlexion(dynamicDeg: number): AngleEstimate {
   };
 }
 
-/** Likely 3D knee angle from a 2D video angle (+2.2°, Fonda, Sarabon & Li 2014 [V]). */
+/**
+ * Likely 3D knee angle from a 2D video angle (+2.2°, Fonda, Sarabon & Li 2014 [V]). The input
+ * stops 2.2° short of 180° so the result is still an angle between two limb segments [D].
+ */
 export function video2dTo3dKneeAngle(angle2dDeg: number): number {
-  return requireRange('kneeAngle2d', angle2dDeg, 0, 180, '°') + VIDEO_2D_UNDERESTIMATE_DEG;
+  return requireRange('kneeAngle2d', angle2dDeg, 0, 180 - VIDEO_2D_UNDERESTIMATE_DEG, '°') + VIDEO_2D_UNDERESTIMATE_DEG;
 }

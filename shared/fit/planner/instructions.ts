@@ -1,4 +1,5 @@
 /** Plain-language instructions for a step: what to change, by how much, how to measure it. */
+import { requireFinite } from '../errors';
 import { seatPostMove } from '../saddle-height/corrections';
 import { PARAMETER_INFO, type ParameterGroup, type SetupParameter } from '../setup/parameters';
 import type { Setup } from '../setup/schemas';
@@ -50,12 +51,16 @@ export function stepInstructions(changes: PlanChange[], before: Setup, after: Se
   // The main change first, then the saddle compensation it carries.
   const ordered = [...changes.filter((c) => !c.coupledTo), ...changes.filter((c) => c.coupledTo)];
   for (const c of ordered) {
+    // A NaN here would print "NaN mm" to a rider: refuse it instead.
+    requireFinite(`changes.${c.parameter}.delta`, c.delta);
+    requireFinite(`changes.${c.parameter}.to`, c.to);
     const info = PARAMETER_INFO[c.parameter];
     const [up, down] = VERBS[c.parameter];
     const why = c.coupledTo ? ` ${COUPLING_WHY[c.coupledTo]}` : '';
     lines.push(`${(c.delta > 0 ? up : down)(amount(c.delta, info.unit))}${why}: ${info.measure}. It should read ${reading(c.to, info.unit)}.`);
     if (c.parameter === 'saddleHeight' && seatTubeAngle !== undefined && after.saddleSetback === before.saddleSetback) {
       const slide = seatPostMove(c.delta, seatTubeAngle).setback;
+      requireFinite('before.saddleSetback', before.saddleSetback);
       if (Math.abs(slide) >= 0.5) {
         lines.push(
           `Moving the seat post also moves the saddle ${slide > 0 ? 'back' : 'forward'} by ${amount(slide, 'mm')}; slide it ${slide > 0 ? 'forward' : 'back'} that much on its rails to keep the setback at ${amount(before.saddleSetback, 'mm')}.`,

@@ -1,4 +1,5 @@
 /** The limits a plan must respect, from the clinic policy, current pain, red flags and physio limits. */
+import { requireRange } from '../errors';
 import { GROUP_PARAMETERS, SETUP_PARAMETERS, type SetupParameter } from '../setup/parameters';
 import { SEVERE_PAIN } from '../triage/red-flags';
 import { MODERATE_PAIN, MODERATE_PAIN_CAP_FACTOR, type Caps } from './constants';
@@ -29,6 +30,7 @@ export interface EffectiveLimits {
  * 7 (severe: the plan stops; see constants.ts).
  */
 export function painCapFactor(pain: number): number {
+  requireRange('pain', pain, 0, 10);
   if (pain >= SEVERE_PAIN) return 0;
   return pain >= MODERATE_PAIN ? MODERATE_PAIN_CAP_FACTOR : 1;
 }

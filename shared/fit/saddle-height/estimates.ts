@@ -1,5 +1,5 @@
 /** Saddle-height estimates side by side, all brought to the bottom-bracket convention. */
-import { ensureFinite, parseInput } from '../errors';
+import { ensureFinite, parseInput, requireRange } from '../errors';
 import {
   DEFAULT_CRANK_LENGTH_MM,
   DEFAULT_SEAT_TUBE_ANGLE_DEG,
@@ -25,11 +25,18 @@ import {
  * the crank in line with the seat tube, the spindle is one crank length beyond the BB [D].
  */
 export function spindleToBottomBracket(spindleMm: number, crankLengthMm: number): number {
+  // Plausibility guards, not advice: 1.104 × the largest inseam we take (1100 mm) is 1214 mm.
+  requireRange('spindleLength', spindleMm, 400, 1400, 'mm');
+  requireRange('crankLength', crankLengthMm, 100, 220, 'mm');
   return spindleMm - crankLengthMm;
 }
 
 /** Gatti et al. 2021 regression, all in centimetres and degrees: SH = 7.41 + 0.82·I − 0.1·θ + 0.003·I·STA [V]. */
 export function gattiSaddleHeightCm(inseamCm: number, kneeFlexionDeg: number, seatTubeAngleDeg: number): number {
+  // The same guards as saddleHeightInputSchema (inseam 500–1100 mm, θmin 20–50°, STA 60–90°).
+  requireRange('inseamCm', inseamCm, 50, 110, 'cm');
+  requireRange('kneeFlexion', kneeFlexionDeg, 20, 50, '°');
+  requireRange('seatTubeAngle', seatTubeAngleDeg, 60, 90, '°');
   const g = GATTI_2021;
   return ensureFinite(
     'gatti',
