@@ -7,16 +7,24 @@ import { listSnapshots } from './setup-history';
 
 export const todayUtc = () => new Date().toISOString().slice(0, 10);
 
+/** The planner takes at most this many ridden setups (planInputSchema's `history`). */
+const MAX_HISTORY = 500;
+
 /**
- * Setups the rider has ridden, for the revert rule. Each snapshot was ridden from its date until
- * the next one. Rides are only known for the long-standing baseline (the rider's own setup, taken
- * as well ridden); later setups count rides once check-ins log them, so they are never assumed.
+ * Setups the rider has ridden, for the revert rule and for the changes made before a plan. Each
+ * snapshot was ridden from its date until the next one, so the last entry's `to` is the day the
+ * current setup went on: the planner starts step 1 no sooner than the adaptation period after it
+ * and counts earlier moves in its windows (shared/fit/planner/prior.ts). A re-measurement that
+ * found the same setup moves nothing and is not counted as a change. Rides are only known for the
+ * long-standing baseline (the rider's own setup, taken as well ridden); later setups count rides
+ * once check-ins log them, so they are never assumed. Only the newest MAX_HISTORY are sent.
  */
 export function riddenHistory(snapshots: SetupSnapshot[], adaptationRides: number, ridesBySnapshot: Map<number, number> = new Map()): RiddenSetup[] {
-  return snapshots.slice(0, -1).map((snapshot, i) => ({
+  const recent = snapshots.slice(-(MAX_HISTORY + 1));
+  return recent.slice(0, -1).map((snapshot, i) => ({
     setup: snapshot.setup,
     from: snapshot.takenOn,
-    to: snapshots[i + 1]!.takenOn,
+    to: recent[i + 1]!.takenOn,
     rides: ridesBySnapshot.get(snapshot.id) ?? (snapshot.source === 'baseline' ? adaptationRides : 0),
   }));
 }
@@ -54,6 +62,7 @@ export async function buildPlanInputs(consultation: Consultation, bikeId: number
   const { pain, level } = await currentPain(consultation.riderId);
   const physio = await physioLimitsFor(consultation.riderId);
   const today = todayUtc();
+  // The planner itself moves step 1 past the adaptation period of the last change in `history`.
   const startDate = options.startDate && options.startDate > today ? options.startDate : today;
   const inputs: PlanInput & { startDate: string } = {
     baseline: current.setup,

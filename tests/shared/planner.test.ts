@@ -342,3 +342,34 @@ describe('validatePlan', () => {
     expect(codes(q, o)).toEqual(expect.arrayContaining(['unlisted-change', 'step-order']));
   });
 });
+
+describe('changes made before the plan (history)', () => {
+  const before = { ...BASE, saddleHeight: 737 };
+
+  it('starts step 1 no sooner than the adaptation period after the last change, and validatePlan checks it', () => {
+    const over = { history: [{ setup: before, from: '2024-10-01', to: '2025-02-27', rides: 30 }] };
+    const plan = buildPlan(inputs(over));
+    expect(plan.steps[0]?.earliestDate).toBe('2025-03-13');
+    expect(validatePlan(plan, inputs(over))).toEqual([]);
+    const early = structuredClone(buildPlan(inputs()));
+    expect(validatePlan(early, inputs(over)).map((x) => x.code)).toContain('adaptation-days');
+  });
+
+  it('counts earlier changes in the window: 3 mm up two weeks ago leaves 3 mm of the 6 mm per 28 days', () => {
+    const over = { policy: { adaptationDays: 7 }, history: [{ setup: before, from: '2024-10-01', to: '2025-02-15', rides: 30 }] };
+    const plan = buildPlan(inputs(over));
+    // Step 2 waits until the earlier change leaves the window (03-15), step 3 until step 1 does (03-29).
+    expect(plan.steps.map((s) => s.earliestDate)).toEqual(['2025-03-01', '2025-03-15', '2025-03-29']);
+    expect(validatePlan(plan, inputs(over))).toEqual([]);
+    const squeezed = structuredClone(plan);
+    const second = squeezed.steps[1];
+    if (!second) throw new Error('no second step');
+    second.earliestDate = '2025-03-08';
+    expect(validatePlan(squeezed, inputs(over)).map((x) => x.code)).toContain('window-cap');
+  });
+
+  it('does not count a re-measurement that found the same setup as a change', () => {
+    const plan = buildPlan(inputs({ history: [{ setup: BASE, from: '2024-10-01', to: '2025-02-27', rides: 30 }] }));
+    expect(plan.steps[0]?.earliestDate).toBe('2025-03-01');
+  });
+});

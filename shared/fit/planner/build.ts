@@ -8,6 +8,7 @@ import { setupSchema, type Setup } from '../setup/schemas';
 import { DEFAULT_GROUP_ORDER, EPS, MAX_STEPS } from './constants';
 import { stepInstructions } from './instructions';
 import { effectiveLimits, type EffectiveLimits } from './limits';
+import { firstStepDate, priorChanges, priorUsedInWindow, type PriorChange } from './prior';
 import { knownSetupSource, physioRevertBlock } from './revert';
 import { planInputSchema, type Plan, type PlanChange, type PlanInput, type PlanInputParsed, type PlanReason, type PlanStep } from './schemas';
 
@@ -20,12 +21,14 @@ interface Ctx {
   limits: EffectiveLimits;
   goal: Setup;
   steps: PlanStep[];
+  /** Changes before the plan (prior.ts): they delay step 1 and count in the windows. */
+  prior: PriorChange[];
 }
 
-/** Total |movement| of a parameter in steps dated inside the window that ends on `date`. */
+/** Total |movement| of a parameter in steps and earlier changes dated inside the window that ends on `date`. */
 function usedInWindow(ctx: Ctx, p: SetupParameter, date: string): number {
   const from = addDays(date, -ctx.limits.windowDays);
-  let sum = 0;
+  let sum = priorUsedInWindow(ctx.prior, ctx.limits, p, date);
   for (const s of ctx.steps) {
     if (s.earliestDate > from && s.earliestDate <= date) sum += Math.abs(s.changes.find((c) => c.parameter === p)?.delta ?? 0);
   }
@@ -112,9 +115,10 @@ function planGroup(ctx: Ctx, group: ParameterGroup, start: Setup): { current: Se
       return { current, stop: blockedReason(ctx, group) };
     }
     const last = ctx.steps[ctx.steps.length - 1];
-    const first = last ? addDays(last.earliestDate, ctx.limits.adaptationDays) : ctx.input.startDate;
-    // Wait, if need be, until older steps leave the window and a full step fits.
-    const candidates = [first, ...ctx.steps.map((s) => addDays(s.earliestDate, ctx.limits.windowDays)).filter((d) => d > first)];
+    const first = last ? addDays(last.earliestDate, ctx.limits.adaptationDays) : firstStepDate(ctx.input, ctx.limits, ctx.prior);
+    // Wait, if need be, until older steps and earlier changes leave the window and a full step fits.
+    const dates = [...ctx.prior.map((c) => c.date), ...ctx.steps.map((s) => s.earliestDate)];
+    const candidates = [first, ...dates.map((d) => addDays(d, ctx.limits.windowDays)).filter((d) => d > first).sort()];
     let chosen: { date: string; next: Setup } | null = null;
     for (const date of candidates) {
       const budget = (p: SetupParameter) => Math.min(ctx.limits.stepCaps[p], ctx.limits.windowCaps[p] - usedInWindow(ctx, p, date));
@@ -234,7 +238,7 @@ export function buildPlanFrom(input: PlanInputParsed): Plan {
     notes.push(block);
   }
   const reasons: PlanReason[] = [...notes];
-  const ctx: Ctx = { input, limits, goal: input.target, steps: [] };
+  const ctx: Ctx = { input, limits, goal: input.target, steps: [], prior: priorChanges(input) };
   initialGoal(ctx, reasons);
   const order = [...new Set([...(input.groupOrder ?? []), ...DEFAULT_GROUP_ORDER])];
   let current = input.baseline;

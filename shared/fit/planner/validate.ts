@@ -7,6 +7,7 @@ import { COUPLED_GROUPS, groupOf, SETUP_PARAMETERS, type ParameterGroup, type Se
 import type { Setup } from '../setup/schemas';
 import { EPS, GROUPS_PER_STEP, MAX_STEPS } from './constants';
 import { effectiveLimits } from './limits';
+import { firstStepDate, priorChanges, priorUsedInWindow } from './prior';
 import { oneStepRevertSource, sameSetup } from './revert';
 import { planInputSchema, planSchema, type PlanInput, type PlanViolation } from './schemas';
 
@@ -42,6 +43,8 @@ export function validatePlan(plan: unknown, inputs: PlanInput): PlanViolation[] 
   }
   if (p.steps.length > MAX_STEPS) out.push(v('too-many-steps', `A plan has at most ${MAX_STEPS} steps.`));
 
+  const prior = priorChanges(input);
+  const firstDate = firstStepDate(input, limits, prior);
   let prev = input.baseline;
   let prevDate: string | null = null;
   p.steps.forEach((s, i) => {
@@ -88,6 +91,10 @@ export function validatePlan(plan: unknown, inputs: PlanInput): PlanViolation[] 
     }
     const first = prevDate === null;
     if (first && s.earliestDate < input.startDate) out.push(v('date', `Step 1 is dated before the start date.`, n));
+    // A one-step revert undoes a change and need not wait for it (revert.ts); any other step 1 waits for the last change before the plan.
+    else if (first && s.kind === 'change' && s.earliestDate < firstDate) {
+      out.push(v('adaptation-days', `Step 1 comes sooner than ${limits.adaptationDays} days after the last change before the plan; it may come from ${firstDate}.`, n));
+    }
     if (prevDate !== null && daysBetween(prevDate, s.earliestDate) < limits.adaptationDays) {
       out.push(v('adaptation-days', `Step ${n} comes sooner than ${limits.adaptationDays} days after the step before.`, n));
     }
@@ -102,10 +109,12 @@ export function validatePlan(plan: unknown, inputs: PlanInput): PlanViolation[] 
   for (const end of changeSteps) {
     const from = addDays(end.earliestDate, -limits.windowDays);
     for (const param of SETUP_PARAMETERS) {
-      const total = changeSteps
+      const planned = changeSteps
         .filter((s) => s.earliestDate > from && s.earliestDate <= end.earliestDate)
         .reduce((sum, s) => sum + Math.abs(s.changes.find((c) => c.parameter === param)?.delta ?? 0), 0);
-      if (total > limits.windowCaps[param] + EPS) {
+      // Earlier changes count, but only a window the plan itself adds to can be the plan's fault.
+      const total = planned + priorUsedInWindow(prior, limits, param, end.earliestDate);
+      if (planned > EPS && total > limits.windowCaps[param] + EPS) {
         out.push(v('window-cap', `${param} moves ${total.toFixed(2)} in the ${limits.windowDays} days to ${end.earliestDate}, over ${limits.windowCaps[param].toFixed(2)}.`, end.index, param));
       }
     }
