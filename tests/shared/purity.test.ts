@@ -16,11 +16,41 @@ describe('the shared/ purity rule', { timeout: 30_000 }, () => {
     ["import x from '@/stores/auth';", 'no-restricted-imports'],
     ['export const here = window.location.href;', 'no-restricted-globals'],
     ['export const env = process.env.X;', 'no-restricted-globals'],
+    ["import { readFile } from 'fs/promises';", 'no-restricted-imports'],
+    ["import { readFile } from 'node:fs/promises';", 'no-restricted-imports'],
+    ["import zlib from 'zlib';", 'no-restricted-imports'],
+    ["import { gzipSync } from 'node:zlib';", 'no-restricted-imports'],
+    ["import sharp from 'sharp';", 'no-restricted-imports'],
+    ["import pino from 'pino';", 'no-restricted-imports'],
+    ["import { Op } from 'sequelize';", 'no-restricted-imports'],
+    ["import { z } from 'zodiac';", 'no-restricted-imports'],
+    ['export const lang = navigator.language;', 'no-restricted-globals'],
+    ["export const saved = sessionStorage.getItem('x');", 'no-restricted-globals'],
+    ['export const g = global;', 'no-restricted-globals'],
+    ['export const env = globalThis.process.env;', 'no-restricted-properties'],
+    ["export const env = globalThis['process'];", 'no-restricted-properties'],
+    ['export const doc = globalThis.document;', 'no-restricted-properties'],
+    ["export const fs = require('fs');", 'no-restricted-globals'],
   ])('flags %s', async (code, rule) => {
     expect(await lint(`${code}\nexport {};\n`)).toContain(rule);
   });
 
-  it('allows pure imports such as zod and sibling files', async () => {
-    expect(await lint("import { z } from 'zod';\nimport { ROLES } from './auth/roles';\nexport const s = [z, ROLES];\n")).toEqual([]);
+  it('allows the allow-listed imports (zod, luxon, @shared/*, relative files) and the language’s own globals', async () => {
+    const code = [
+      "import { z } from 'zod';",
+      "import { DateTime } from 'luxon';",
+      "import { FitInputError } from '@shared/fit/errors';",
+      "import { ROLES } from './auth/roles';",
+      "import { x } from '../fit/errors';",
+      'export const s = [z, DateTime, FitInputError, ROLES, x, Math.PI, new Intl.NumberFormat(), structuredClone({}), globalThis.Math];',
+    ].join('\n');
+    expect(await lint(`${code}\n`)).toEqual([]);
+  });
+
+  it('does not give shared/ the Node and browser globals the rest of the project has', async () => {
+    const config = await eslint.calculateConfigForFile('shared/probe.ts');
+    expect(config.languageOptions.globals).not.toHaveProperty('window');
+    expect(config.languageOptions.globals).not.toHaveProperty('process');
+    expect((await eslint.calculateConfigForFile('server/probe.ts')).languageOptions.globals).toHaveProperty('process');
   });
 });
