@@ -368,6 +368,18 @@ describe('changes made before the plan (history)', () => {
     expect(validatePlan(squeezed, inputs(over)).map((x) => x.code)).toContain('window-cap');
   });
 
+  it('waits with a crank change while earlier changes overfill the window, never moving the other way', () => {
+    const over = {
+      target: { ...BASE, crankLength: 170, saddleHeight: 742.5 },
+      history: [{ setup: { ...BASE, saddleHeight: 715 }, from: '2024-10-01', to: '2025-02-13', rides: 30 }],
+    };
+    const plan = buildPlan(inputs(over));
+    // 25 mm of saddle height two weeks ago fills the 6 mm window until it leaves on 03-13.
+    expect(plan.steps[0]).toMatchObject({ group: 'cranks', earliestDate: '2025-03-13' });
+    expect(deltas(plan, 'crankLength')).toEqual([-2.5]);
+    expect(validatePlan(plan, inputs(over))).toEqual([]);
+  });
+
   it('does not count a re-measurement that found the same setup as a change', () => {
     const plan = buildPlan(inputs({ history: [{ setup: BASE, from: '2024-10-01', to: '2025-02-27', rides: 30 }] }));
     expect(plan.steps[0]?.earliestDate).toBe('2025-03-01');

@@ -121,7 +121,8 @@ function planGroup(ctx: Ctx, group: ParameterGroup, start: Setup): { current: Se
     const candidates = [first, ...dates.map((d) => addDays(d, ctx.limits.windowDays)).filter((d) => d > first).sort()];
     let chosen: { date: string; next: Setup } | null = null;
     for (const date of candidates) {
-      const budget = (p: SetupParameter) => Math.min(ctx.limits.stepCaps[p], ctx.limits.windowCaps[p] - usedInWindow(ctx, p, date));
+      // Never below 0: earlier changes can overfill a window, and a negative crank budget would floor to a move.
+      const budget = (p: SetupParameter) => Math.max(0, Math.min(ctx.limits.stepCaps[p], ctx.limits.windowCaps[p] - usedInWindow(ctx, p, date)));
       const next = apply(ctx, current, groupMoves(ctx, group, current, budget));
       if (!isEmpty(current, next)) chosen = { date, next };
       if (sameMoves(next, capOnly)) break;
