@@ -57,7 +57,9 @@ describe('TRADE.md check values', () => {
     expect(cleatMoveCorrection(-10)).toBeCloseTo(-5, 9);
   });
 
-  it('tyre 25-622 has an outside diameter of about 672–677 mm (ISO 5775 [V2/D])', () => {
+  // A consistency check, not a verification: the 672 mm end follows from section ≈ width (TRADE §7
+  // [V2]), but the 677 mm end is what SECTION_HEIGHT_FACTOR_RANGE's 1.1 was fitted to [D, fitted].
+  it('tyre 25-622 has an outside diameter of about 672–677 mm (ISO 5775 [V2]; upper end fitted [D])', () => {
     const t = parseTyreSize('25-622');
     expect(t.outsideDiameter).toBeGreaterThanOrEqual(672);
     expect(t.outsideDiameter).toBeLessThanOrEqual(677);

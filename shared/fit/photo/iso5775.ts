@@ -29,9 +29,10 @@ export const ISO_5775_WHEEL_SIZES: readonly WheelSize[] = [
 ];
 
 /**
- * Section height ≈ tyre width (TRADE §7 [V2]). The outside-diameter range allows the section
- * to stand up to 10 % taller than the width, which reproduces TRADE's check range of
- * 672–677 mm for a 25-622 tyre [D].
+ * Section height ≈ tyre width (TRADE §7 [V2]). The upper factor 1.1 has no source: it was fitted
+ * so that a 25-622 tyre gives the top of TRADE's check range, 677 mm (622 + 2 × 27.5) [D, fitted].
+ * The test of that check value is therefore a consistency check with TRADE's table, not an
+ * independent verification; only the lower end (factor 1, 672 mm) follows from the quoted rule.
  */
 export const SECTION_HEIGHT_FACTOR_RANGE = [1, 1.1] as const;
 
@@ -45,7 +46,10 @@ export interface TyreSize {
   outsideDiameterRange: [number, number];
 }
 
-/** Tyre widths we accept, mm: narrow track tyres to wide mountain-bike tyres. */
+/**
+ * Tyre widths we accept, mm: narrow track tyres to fat-bike tyres. A plausibility guard and our
+ * decision, no source (the end sizes are [from memory]); a width outside is taken as a typing mistake.
+ */
 const WIDTH_LIMITS = [16, 130] as const;
 
 /**

@@ -7,7 +7,8 @@
  *   persists off the bike; pain ≥ 7/10; a crash or fall with any Ottawa knee sign (Stiell et al.
  *   1996 — those point to imaging). These hint at structural or nerve involvement.
  * - routine: a crash or fall without Ottawa signs; pain that has not settled after changes.
- * - two or more different physio-level findings together are raised to soon.
+ * - two or more different physio-level findings together are raised to soon (our decision, no
+ *   published rule: several findings together make a structural cause likelier).
  * - urgent (NICE NG59; BMJ Best Practice [V]): saddle/genital numbness that outlasts the ride, or
  *   saddle numbness with back pain, leg weakness or bladder/bowel change; bladder/bowel change or
  *   progressive leg weakness on their own (cauda equina signs); a hot, swollen joint; fever with pain.
@@ -161,7 +162,7 @@ export function screenRedFlags(input: RedFlagScreenInput): RedFlagResult {
       id: 'several-findings',
       level: 'physio-soon',
       reason: 'Several warning signs together.',
-      source: 'our rule: two or more physio-level findings are raised to "soon" [CP]',
+      source: 'our decision (no published rule): two or more physio-level findings are raised to "soon"',
     });
   }
   const level = triggers.reduce<ReferralLevel>((acc, t) => maxReferral(acc, t.level), 'none');
