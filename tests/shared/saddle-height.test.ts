@@ -101,13 +101,28 @@ describe('estimateSaddleHeight', () => {
     expect(r.assumptions).toEqual([]);
   });
 
-  it('converts the spindle convention by subtracting the crank length [D]', () => {
+  it('converts the spindle convention by subtracting the crank length: 1.09 × 850 = 926.5 mm (Hamley & Thomas 1967 [V2]; TRADE check value [D])', () => {
     const r = estimateSaddleHeight(input);
     const hamley = r.estimates.find((e) => e.method === 'hamley-thomas-109');
+    // With the reference 20 mm stack [from memory] only the crank comes off (TRADE §2 [D]).
     expect(hamley?.value).toBeCloseTo(926.5 - 172.5, 9);
-    // The range's top adds the 20 mm stack (the bare-foot reading).
-    expect(hamley?.range[1]).toBeCloseTo(926.5 - 172.5 + 20, 9);
+    expect(hamley?.range).toEqual([hamley?.value, hamley?.value]);
     expect(spindleToBottomBracket(900, 170)).toBe(730);
+  });
+
+  it('applies one conversion, crank and stack, to every spindle method (worked example, our rule on TRADE §2 [D])', () => {
+    // Inseam 850, cranks 170, stack 26 mm: saddle-to-BB = spindle value − 170 + (26 − 20).
+    const r = estimateSaddleHeight({ inseam: 850, crankLength: 170, stack: 26, seatTubeAngle: 73, gattiKneeFlexion: 35 });
+    const by = (m: string) => r.estimates.find((e) => e.method === m);
+    expect(by('hamley-thomas-109')?.value).toBeCloseTo(926.5 - 170 + 6, 9); // 762.5
+    expect(by('ferrer-roca-range')?.range[0]).toBeCloseTo(0.01 * 108.6 * 850 - 170 + 6, 9); // 759.1
+    expect(by('ferrer-roca-range')?.range[1]).toBeCloseTo(0.01 * 110.4 * 850 - 170 + 6, 9); // 774.4
+    expect(by('gatti-regression')?.value).toBeCloseTo(922.25 - 170 + 6, 9); // 758.25
+    expect(by('hamley-thomas-109')?.how).toMatch(/plus 6 mm for a stack thicker than the 20 mm/);
+    // The BB-convention methods do not move with the stack.
+    expect(by('lemond-0883')?.value).toBeCloseTo(750.55 - 3, 9);
+    expect(spindleToBottomBracket(926.5, 170, 14)).toBeCloseTo(750.5, 9);
+    expect(estimateSaddleHeight({ ...input, stack: 14 }).estimates[1]?.how).toMatch(/minus 6 mm for a stack thinner/);
   });
 
   it('lowers the 0.883 value 3 mm with clipless pedals (LeMond 1987 [V2]) and not without', () => {
@@ -165,7 +180,7 @@ describe('saddle-height corrections', () => {
     expect(cleatMoveCorrection(0)).toBe(0);
   });
 
-  it('raises the saddle by a thicker stack', () => {
+  it('raises the saddle by a thicker stack: +3 mm for 18 → 21 mm (TRADE §2 [D])', () => {
     expect(stackChangeCorrection(18, 21)).toBe(3);
   });
 

@@ -74,3 +74,11 @@ export const DEFAULT_SEAT_TUBE_ANGLE_DEG = 73;
 
 /** Crank length assumed when none is given: a common size from the list above [V]. */
 export const DEFAULT_CRANK_LENGTH_MM = 172.5;
+
+/**
+ * Shoe, cleat and pedal stack (pedal-axle centre to the sole of the foot) of a rider in road shoes
+ * on clipless pedals: about 20 mm [from memory]. None of the pedal-spindle sources (Hamley &
+ * Thomas 1967, Ferrer-Roca 2012, Gatti 2021) reports its riders' stack, so this is the stack their
+ * numbers are taken to include; it is also the stack assumed when the rider gives none.
+ */
+export const REFERENCE_STACK_MM = 20;

@@ -10,6 +10,7 @@ import {
   INSEAM_MINUS_MM,
   LEMOND_CLIPLESS_REDUCTION_MM,
   LEMOND_FACTOR,
+  REFERENCE_STACK_MM,
   STATIC_KNEE_FLEXION_DEG,
 } from './constants';
 import { saddleHeightForKneeFlexion } from './leg-model';
@@ -21,14 +22,22 @@ import {
 } from './schemas';
 
 /**
- * Converts a saddle-top-to-pedal-spindle length to the bottom-bracket convention. Measured with
- * the crank in line with the seat tube, the spindle is one crank length beyond the BB [D].
+ * The one rule that brings every pedal-spindle method to the bottom-bracket convention (our
+ * decision, see shared/README.md):
+ *   saddle-to-BB = saddle-to-spindle − crank + (stack − REFERENCE_STACK_MM).
+ * - Crank: measured with the crank in line with the seat tube, the spindle is one crank length
+ *   beyond the BB [D].
+ * - Stack: the sources' riders stood on their pedals in ordinary road shoes (REFERENCE_STACK_MM,
+ *   [from memory]); a thicker stack leaves the leg less reach, so the saddle goes up by the
+ *   difference, as TRADE §2 says for any stack change [D]. With the reference stack, 1.09 × inseam
+ *   lands within a few mm of 0.883 × inseam, as Peveler et al. 2005 [V] found the two formulas agree.
  */
-export function spindleToBottomBracket(spindleMm: number, crankLengthMm: number): number {
+export function spindleToBottomBracket(spindleMm: number, crankLengthMm: number, stackMm: number = REFERENCE_STACK_MM): number {
   // Plausibility guards, not advice: 1.104 × the largest inseam we take (1100 mm) is 1214 mm.
   requireRange('spindleLength', spindleMm, 400, 1400, 'mm');
   requireRange('crankLength', crankLengthMm, 100, 220, 'mm');
-  return spindleMm - crankLengthMm;
+  requireRange('stack', stackMm, 0, 80, 'mm');
+  return spindleMm - crankLengthMm + (stackMm - REFERENCE_STACK_MM);
 }
 
 /** Gatti et al. 2021 regression, all in centimetres and degrees: SH = 7.41 + 0.82·I − 0.1·θ + 0.003·I·STA [V]. */
@@ -42,6 +51,13 @@ export function gattiSaddleHeightCm(inseamCm: number, kneeFlexionDeg: number, se
     'gatti',
     g.interceptCm + g.inseamCoef * inseamCm + g.kneeCoefPerDeg * kneeFlexionDeg + g.inseamStaCoef * inseamCm * seatTubeAngleDeg,
   );
+}
+
+/** The spindle-to-BB conversion in words, for the "how we got this" line. */
+function conversionText(crank: number, stack: number): string {
+  const d = stack - REFERENCE_STACK_MM;
+  if (d === 0) return `minus the ${crank} mm crank`;
+  return `minus the ${crank} mm crank, ${d > 0 ? 'plus' : 'minus'} ${Math.abs(d)} mm for a stack ${d > 0 ? 'thicker' : 'thinner'} than the ${REFERENCE_STACK_MM} mm the sources' riders are taken to have`;
 }
 
 function median(values: number[]): number {
@@ -66,8 +82,10 @@ export function estimateSaddleHeight(input: SaddleHeightInput): SaddleHeightSumm
   const assumptions: string[] = [];
   const crank = p.crankLength ?? DEFAULT_CRANK_LENGTH_MM;
   if (p.crankLength === undefined) assumptions.push(`Crank length not given: ${crank} mm assumed.`);
-  const stack = p.stack ?? 0;
-  if (p.stack === undefined) assumptions.push('Shoe and pedal stack not given: 0 mm assumed.');
+  const stack = p.stack ?? REFERENCE_STACK_MM;
+  if (p.stack === undefined) assumptions.push(`Shoe and pedal stack not given: ${stack} mm assumed (road shoes on clipless pedals, from memory).`);
+  const toBb = (spindle: number) => spindleToBottomBracket(spindle, crank, stack);
+  const conversion = conversionText(crank, stack);
   const sta = p.seatTubeAngle ?? DEFAULT_SEAT_TUBE_ANGLE_DEG;
   if (p.seatTubeAngle === undefined) assumptions.push(`Seat-tube angle not given: ${sta}° assumed (typical road frame, from memory).`);
   const I = p.inseam;
@@ -89,20 +107,18 @@ export function estimateSaddleHeight(input: SaddleHeightInput): SaddleHeightSumm
   });
 
   const hamley = HAMLEY_THOMAS_FACTOR * I;
-  const hamleyBb = spindleToBottomBracket(hamley, crank);
+  const hamleyBb = toBb(hamley);
   estimates.push({
     method: 'hamley-thomas-109',
     label: '1.09 × inseam (to the pedal spindle)',
     convention: 'spindle-to-saddle-top',
     conventionValue: hamley,
-    conventionRange: [hamley, hamley + stack],
+    conventionRange: [hamley, hamley],
     value: hamleyBb,
-    // The 1967 set-up's footwear was not checked [from memory]: if the 1.09 length was the bare
-    // foot's reach, today's shoe and pedal stack would add to it, so the range spans both readings.
-    range: [hamleyBb, hamleyBb + stack],
+    range: [hamleyBb, hamleyBb],
     source: 'Hamley & Thomas 1967, J Physiol 191:55P [V2]',
     tag: 'V2',
-    how: `1.09 × ${I} mm = ${hamley.toFixed(1)} mm saddle top to spindle, minus the ${crank} mm crank; the range adds the ${stack} mm shoe and pedal stack in case the rule meant the bare foot's reach.`,
+    how: `1.09 × ${I} mm = ${hamley.toFixed(1)} mm saddle top to spindle, ${conversion}.`,
   });
 
   const [fLo, fHi] = FERRER_ROCA_FACTORS;
@@ -113,11 +129,11 @@ export function estimateSaddleHeight(input: SaddleHeightInput): SaddleHeightSumm
     convention: 'spindle-to-saddle-top',
     conventionValue: fMid,
     conventionRange: [fLo * I, fHi * I],
-    value: spindleToBottomBracket(fMid, crank),
-    range: [spindleToBottomBracket(fLo * I, crank), spindleToBottomBracket(fHi * I, crank)],
+    value: toBb(fMid),
+    range: [toBb(fLo * I), toBb(fHi * I)],
     source: 'Ferrer-Roca et al. 2012, J Strength Cond Res 26(11):3025–3029 [V]',
     tag: 'V',
-    how: `${(fLo * 100).toFixed(1)}–${(fHi * 100).toFixed(1)} % of ${I} mm = ${(fLo * I).toFixed(1)}–${(fHi * I).toFixed(1)} mm to the spindle, minus the ${crank} mm crank.`,
+    how: `${(fLo * 100).toFixed(1)}–${(fHi * 100).toFixed(1)} % of ${I} mm = ${(fLo * I).toFixed(1)}–${(fHi * I).toFixed(1)} mm to the spindle, ${conversion}.`,
   });
 
   const [mLo, mHi] = INSEAM_MINUS_MM;
@@ -143,11 +159,11 @@ export function estimateSaddleHeight(input: SaddleHeightInput): SaddleHeightSumm
     convention: 'spindle-to-saddle-top',
     conventionValue: gatti,
     conventionRange: [gatti - rmse, gatti + rmse],
-    value: spindleToBottomBracket(gatti, crank),
-    range: [spindleToBottomBracket(gatti - rmse, crank), spindleToBottomBracket(gatti + rmse, crank)],
+    value: toBb(gatti),
+    range: [toBb(gatti - rmse), toBb(gatti + rmse)],
     source: 'Gatti et al. 2021, Eur J Sport Sci, doi 10.1080/17461391.2021.1902570 [V]; convention read as saddle-to-spindle [D]',
     tag: 'V',
-    how: `7.41 + 0.82·${(I / 10).toFixed(1)} − 0.1·${p.gattiKneeFlexion} + 0.003·${(I / 10).toFixed(1)}·${sta} = ${gattiCm.toFixed(2)} cm (± one RMSE of 1.15 cm), minus the ${crank} mm crank.`,
+    how: `7.41 + 0.82·${(I / 10).toFixed(1)} − 0.1·${p.gattiKneeFlexion} + 0.003·${(I / 10).toFixed(1)}·${sta} = ${gattiCm.toFixed(2)} cm (± one RMSE of 1.15 cm), ${conversion}.`,
   });
 
   if (p.leg) {
