@@ -34,7 +34,8 @@ describe('possible fit causes (Silberman et al. 2005 [V]; Asplund & St Pierre 20
     expect(causeRowFor('knee-back-left')).toBe('posterior-knee');
     expect(causeRowFor('knee-inner-left')).toBe('medial-knee');
     expect(causeRowFor('knee-outer-left')).toBe('lateral-knee');
-    expect(causeRowFor('hip-left')).toBe('hip-rocking');
+    // Hip pain has its own row: hip rocking is something the fitter sees, not a place that hurts.
+    expect(causeRowFor('hip-left')).toBe('hip-pain');
     expect(causeRowFor('lower-back')).toBe('low-back');
     expect(causeRowFor('neck')).toBe('neck-shoulders');
     expect(causeRowFor('shoulder-right')).toBe('neck-shoulders');
@@ -57,7 +58,8 @@ describe('possible fit causes (Silberman et al. 2005 [V]; Asplund & St Pierre 20
       symptom({ region: 'neck', pain: 5 }),
     ]);
     expect(ranked[0]?.cause).toBe('saddle-high');
-    expect(ranked[0]?.score).toBe(11);
+    // Each: pain + 1 while riding + 1 for lasting 14 days or more: (4+2) + (4+2) + (3+2).
+    expect(ranked[0]?.score).toBe(17);
     expect(ranked[0]?.regions).toEqual(['knee-back-left', 'knee-outer-left', 'achilles-left']);
     expect(ranked[0]?.sources.length).toBe(2);
   });
@@ -65,10 +67,34 @@ describe('possible fit causes (Silberman et al. 2005 [V]; Asplund & St Pierre 20
   it('weights numbness in the hands (Patterson et al. 2003 [V]) and saddle area (Lowe et al. 2004 [V])', () => {
     const ranked = rankFitCauses([symptom({ region: 'hand-left', pain: 0, kind: 'numb' }), symptom({ region: 'perineum', pain: 0, kind: 'ache' })]);
     expect(ranked[0]?.cause).toBe('bars-low');
-    expect(ranked[0]?.score).toBe(3);
-    expect(ranked.find((c) => c.cause === 'saddle-pressure')?.score).toBe(1);
+    expect(ranked[0]?.score).toBe(5); // 1 + 2 (numb) + 1 (while riding) + 1 (14 days)
+    expect(ranked.find((c) => c.cause === 'saddle-pressure')?.score).toBe(3);
+    // The numbness flag counts like a numb kind where the row names numbness (feet: tight shoes, cleat; Silberman 2005 [V]).
+    const foot = rankFitCauses([symptom({ region: 'foot-left', pain: 2, kind: 'ache', numbness: true })]);
+    expect(foot.map((c) => [c.cause, c.score])).toEqual([['tight-shoes', 6], ['cleat-forward', 6]]);
+    const knee = rankFitCauses([symptom({ pain: 2, numbness: true })]);
+    expect(knee[0]?.score).toBe(4);
     expect(CAUSE_TABLE['hand-numbness'].source).toContain('Patterson');
     expect(CAUSE_TABLE['perineal-numbness'].source).toContain('Lowe');
+  });
+
+  it('ranks pain while riding and lasting pain above a one-off after a ride, and halves pain only off the bike [CP; sizes our decision]', () => {
+    const ranked = rankFitCauses([
+      symptom({ region: 'knee-back-left', pain: 4, timing: ['after-ride'], durationDays: 3 }),
+      symptom({ region: 'knee-front-left', pain: 4, timing: ['during-ride'], durationDays: 30 }),
+    ]);
+    expect(ranked[0]?.cause).toBe('saddle-low');
+    expect(ranked[0]?.score).toBe(6);
+    expect(ranked.find((c) => c.cause === 'saddle-high')?.score).toBe(4);
+    const offBike = rankFitCauses([symptom({ pain: 6, timing: ['at-night'], durationDays: 3 })]);
+    expect(offBike[0]?.score).toBe(3);
+  });
+
+  it('gives hip pain its own row: check for hip rocking first, then saddle height, leg length and a low front end', () => {
+    const ranked = rankFitCauses([symptom({ region: 'hip-right', pain: 3 })]);
+    expect(ranked.map((c) => c.cause)).toEqual(['hip-rocking', 'saddle-high', 'leg-length-difference', 'bars-low']);
+    expect(ranked[0]?.text).toMatch(/Check whether the hips rock/);
+    expect(CAUSE_TABLE['hip-pain'].source).toMatch(/not in TRADE §5.*from memory/);
   });
 
   it('words every cause as something to check, never a diagnosis', () => {
@@ -114,7 +140,7 @@ describe('red-flag screen (TRADE §6)', () => {
     expect(screenRedFlags({ answers: { [id]: true } }).level).toBe('physio-routine');
   });
 
-  it('does not flag saddle numbness while riding on its own (a fit cause: Lowe 2004), nor back pain alone', () => {
+  it('does not flag saddle numbness while riding on its own (a fit cause: Lowe et al. 2004 [V]), nor back pain alone', () => {
     expect(screenRedFlags({ answers: { 'saddle-numbness-riding': true } }).level).toBe('none');
     expect(screenRedFlags({ answers: { 'back-pain': true } }).level).toBe('none');
   });

@@ -18,13 +18,13 @@ export const FIT_CAUSES = {
   'saddle-angle': { text: 'Saddle tilt may be off', parameters: ['saddleTilt'] },
   'saddle-nose-down': { text: 'Saddle nose may point down too much', parameters: ['saddleTilt'] },
   'saddle-pressure': { text: 'Saddle pressure and tilt may need attention', parameters: ['saddleTilt'] },
+  'hip-rocking': { text: 'Check whether the hips rock on the saddle', parameters: ['saddleHeight'] },
   'big-gears': { text: 'Pushing big gears at low cadence', parameters: [] },
   'long-cranks': { text: 'Cranks may be too long', parameters: ['crankLength'] },
   'excess-float': { text: 'Pedal float may be too loose', parameters: ['cleatRotation'] },
   'toes-out': { text: 'Toes may point out (cleat rotation)', parameters: ['cleatRotation'] },
   'toes-in': { text: 'Toes may point in (cleat rotation)', parameters: ['cleatRotation'] },
   'leg-length-difference': { text: 'A leg-length difference may need a shim', parameters: ['stack'] },
-  'hip-rocking': { text: 'Hips may rock on the saddle', parameters: ['saddleHeight'] },
   'reach-long': { text: 'Reach to the bars may be too long', parameters: ['reach', 'stemLength'] },
   'reach-short': { text: 'Reach to the bars may be too short', parameters: ['reach', 'stemLength'] },
   'bars-low': { text: 'Bars may be too low', parameters: ['drop', 'spacerStack'] },
@@ -51,7 +51,11 @@ export const CAUSE_TABLE = {
   'posterior-knee': { label: 'back of knee', causes: ['saddle-high', 'saddle-back', 'excess-float'], source: SILBERMAN },
   'medial-knee': { label: 'inner knee', causes: ['toes-out', 'excess-float'], source: SILBERMAN },
   'lateral-knee': { label: 'outer knee (ITB)', causes: ['toes-in', 'saddle-high', 'leg-length-difference'], source: SILBERMAN },
-  'hip-rocking': { label: 'hip (check for hip rocking)', causes: ['saddle-high', 'leg-length-difference'], source: SILBERMAN },
+  // An observation the fitter makes on video, not a place that hurts; kept as TRADE lists it.
+  'hip-rocking': { label: 'hips rocking on the saddle (observed)', causes: ['saddle-high', 'leg-length-difference'], source: SILBERMAN },
+  // Hip pain has no row in TRADE §5. Ours: look for the rocking the row above explains, and for a
+  // closed hip angle from a low front end [from memory]. Weaker evidence than the sourced rows.
+  'hip-pain': { label: 'hip', causes: ['hip-rocking', 'saddle-high', 'leg-length-difference', 'bars-low'], source: `check for hip rocking: ${SILBERMAN}; hip pain itself is not in TRADE §5, the link and the low front end are [from memory]` },
   'low-back': { label: 'lower back', causes: ['reach-long', 'bars-low', 'reach-short', 'hip-rocking', 'saddle-angle'], source: `${SILBERMAN}; Asplund & St Pierre 2004 [V]; saddle tilt: Salai et al. 1999, Br J Sports Med 33(6):398–400 [V]` },
   'neck-shoulders': { label: 'neck and shoulders', causes: ['reach-long', 'bars-low', 'saddle-nose-down'], source: SILBERMAN },
   'hand-numbness': { label: 'hands', causes: ['bars-low', 'saddle-forward', 'saddle-nose-down', 'stem-long'], source: `${SILBERMAN}; Patterson et al. 2003, Am J Sports Med 31(4) [V]`, kinds: ['numb', 'tingling'] },
@@ -67,7 +71,7 @@ export function causeRowFor(region: BodyRegion): CauseRowId | null {
   if (region.startsWith('knee-back')) return 'posterior-knee';
   if (region.startsWith('knee-inner')) return 'medial-knee';
   if (region.startsWith('knee-outer')) return 'lateral-knee';
-  if (region.startsWith('hip-')) return 'hip-rocking';
+  if (region.startsWith('hip-')) return 'hip-pain';
   if (region === 'lower-back') return 'low-back';
   if (region === 'neck' || region.startsWith('shoulder-')) return 'neck-shoulders';
   if (region.startsWith('hand-')) return 'hand-numbness';
@@ -77,8 +81,35 @@ export function causeRowFor(region: BodyRegion): CauseRowId | null {
   return null;
 }
 
-/** Extra score when the kind of pain is typical of the row (e.g. numbness in the hands). */
+/**
+ * Ranking weights (the sizes are our decision; the directions are sourced or common practice):
+ * - KIND_MATCH_BONUS: the kind of symptom is typical of the row, e.g. numbness in the hands
+ *   (Patterson et al. 2003 [V]), the saddle area (Lowe et al. 2004 [V]) or the feet (hot foot:
+ *   tight shoes, cleat forward, Silberman 2005 [V]). The `numbness` flag counts like a numb kind:
+ *   numbness points to pressure at a contact point, which those rows name.
+ * - DURING_RIDE_BONUS: it hurts while riding, i.e. under the position's load (common practice [CP]);
+ *   pain only after rides still counts, without the bonus (overuse builds up, Asplund 2004 [V]).
+ * - PERSISTENT_BONUS: it has gone on for at least PERSISTENT_DAYS (one default adaptation period,
+ *   our decision): a symptom that keeps coming back over weeks of riding points to the set-up
+ *   more than a one-off ride does [CP].
+ * - OFF_BIKE_FACTOR: it hurts only at rest or at night, never on or after a ride: less likely a fit
+ *   cause (and a red flag for the physio, TRADE §6 [V]), so its weight is halved.
+ */
 const KIND_MATCH_BONUS = 2;
+const DURING_RIDE_BONUS = 1;
+const PERSISTENT_BONUS = 1;
+const PERSISTENT_DAYS = 14;
+const OFF_BIKE_FACTOR = 0.5;
+
+/** How strongly one symptom points to the causes its row cites (see the weights above). */
+function symptomWeight(s: Symptom, row: CauseRow): number {
+  const numb = s.numbness && row.kinds?.includes('numb');
+  let weight = Math.max(1, s.pain) + (row.kinds?.includes(s.kind) || numb ? KIND_MATCH_BONUS : 0);
+  if (s.timing.includes('during-ride')) weight += DURING_RIDE_BONUS;
+  if (s.durationDays >= PERSISTENT_DAYS) weight += PERSISTENT_BONUS;
+  const ridingRelated = s.timing.includes('during-ride') || s.timing.includes('after-ride');
+  return ridingRelated ? weight : weight * OFF_BIKE_FACTOR;
+}
 
 /** One ranked possible fit cause, as sent to the fitter's screen. */
 export const rankedCauseSchema = z.object({
@@ -94,10 +125,12 @@ export const rankedCauseSchema = z.object({
 export type RankedCause = z.infer<typeof rankedCauseSchema>;
 
 /**
- * Possible fit causes to check, ranked, for the fitter. Each symptom adds its pain score (at
- * least 1, so a painless numbness still counts) plus a bonus when the kind of pain is typical of
- * the row, to every cause its row cites; causes cited by several symptoms rise. Ties keep the
- * order in which the symptoms and the table list them. Never a diagnosis.
+ * Possible fit causes to check, ranked, for the fitter. Each symptom adds its weight to every
+ * cause its row cites: its pain score (at least 1, so a painless numbness still counts), plus
+ * bonuses for a kind typical of the row (or numbness where the row names it), pain while riding
+ * and a symptom that has lasted weeks, halved when it hurts only off the bike (symptomWeight).
+ * Causes cited by several symptoms rise. Ties keep the order in which the symptoms and the table
+ * list them. Never a diagnosis.
  */
 export function rankFitCauses(symptoms: SymptomInput[]): RankedCause[] {
   const list = parseInput(z.array(symptomSchema).max(60), symptoms, 'symptoms');
@@ -106,7 +139,7 @@ export function rankFitCauses(symptoms: SymptomInput[]): RankedCause[] {
     const rowId = causeRowFor(s.region);
     if (!rowId) continue;
     const row: CauseRow = CAUSE_TABLE[rowId];
-    const weight = Math.max(1, s.pain) + (row.kinds?.includes(s.kind) ? KIND_MATCH_BONUS : 0);
+    const weight = symptomWeight(s, row);
     for (const cause of row.causes) {
       const entry = byCause.get(cause) ?? {
         cause,
