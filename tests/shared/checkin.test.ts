@@ -13,7 +13,8 @@ describe('clinically meaningful change (Salaffi 2004 [V]; Farrar 2001 [M])', () 
     expect(compareScores(6, 5).category).toBe('better');
     expect(compareScores(6, 8).category).toBe('much-worse');
     expect(compareScores(6, 7).category).toBe('worse');
-    expect(compareScores(3, 4).category).toBe('much-worse'); // +33 %
+    // 3 → 4 is +1 point but +33 % ≥ 30 %: much worse [D] (derived from the 30 % rule, Salaffi 2004 [V]).
+    expect(compareScores(3, 4).category).toBe('much-worse');
     expect(compareScores(0, 1)).toMatchObject({ category: 'worse', relative: null });
     expect(compareScores(5, 5).category).toBe('same');
     expect(compareScores(8, 6, false).category).toBe('much-worse'); // comfort falling
@@ -78,7 +79,7 @@ describe('analyseCheckIn', () => {
     expect(urgent.reasons[0]?.code).toBe('red-flag:bladder-bowel-change');
   });
 
-  it('refers when a region reaches 7/10 or more (TRADE §6)', () => {
+  it('refers when a region reaches 7/10 or more (physio referral, TRADE §6 [V])', () => {
     const r = analyseCheckIn({ baseline: ci('2025-03-01', 6), current: ci('2025-03-15', 7) });
     expect(r).toMatchObject({ decision: 'refer', referralLevel: 'physio-soon' });
   });

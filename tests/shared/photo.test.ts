@@ -106,9 +106,10 @@ describe('the photo scale', () => {
     expect(() => photoScale({ kind: 'crank', crankLength: 170, from: { x: 5, y: 5 }, to: { x: 5, y: 5 } })).toThrow(/coincide/);
   });
 
-  it('lists the ISO 5775 sizes for a picker, each with a common name and where the name comes from', () => {
+  it('lists the ISO 5775 bead-seat sizes (ISO 5775 [V], TRADE §7) for a picker, each with a common name and where the name comes from', () => {
     expect(ISO_5775_WHEEL_SIZES.map((w) => w.bsd)).toEqual([635, 630, 622, 590, 584, 571, 559, 507, 451, 406, 305]);
     for (const w of ISO_5775_WHEEL_SIZES) expect(w.commonName.length).toBeGreaterThan(1);
+    // 584 mm is 650B / 27.5" (ISO 5775 [V], TRADE §7).
     expect(parseTyreSize(' 50-584 ').wheel.commonName).toContain('650B');
   });
 });

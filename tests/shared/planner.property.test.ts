@@ -107,7 +107,7 @@ const clamp = (v: number, [lo, hi]: readonly [number, number]) => Math.min(hi, M
 
 /**
  * The limits a plan must keep, worked out here from the rules, not read from the plan: the clinic
- * policy clamped to the hard bounds; pain (4–6/10 halves every cap, 7+ refuses: TRADE §6 and our
+ * policy clamped to the hard bounds; pain (4–6/10 halves every cap, 7+ refuses: TRADE §6 [V] and our
  * rule); the physio's caps (minimum), cap factor (multiplies), exclusions (0) and adaptation (maximum).
  */
 function expectedLimits(input: PlanInput) {

@@ -108,7 +108,7 @@ describe('buildPlan', () => {
   it.each([
     ['an urgent red flag', { redFlagLevel: 'urgent' as const }, 'urgent-red-flag'],
     ['a red flag not yet reviewed by a physio', { redFlagLevel: 'physio-routine' as const }, 'red-flag'],
-    ['severe pain (7/10, TRADE §6)', { currentPain: 7 }, 'severe-pain'],
+    ['severe pain (7/10: physio referral, TRADE §6 [V])', { currentPain: 7 }, 'severe-pain'],
     ['a physio hold', { physio: { hold: true } }, 'physio-hold'],
   ])('refuses to go on with %s, giving the reason', (_label, over, code) => {
     const plan = buildPlan(inputs(over));
@@ -154,7 +154,7 @@ describe('buildPlan', () => {
     expect(plan.reasons[0]?.code).toBe('step-limit');
   });
 
-  it('waits for the window when adaptation is short: no more than 6 mm of saddle height in any 28 days [CP]', () => {
+  it('waits for the window when adaptation is short: no more than 6 mm of saddle height in any 28 days (our rule)', () => {
     const over = { policy: { adaptationDays: 7, stepCaps: { ...DEFAULT_STEP_CAPS, saddleHeight: 5 } }, target: { ...BASE, saddleHeight: 760 } };
     const plan = buildPlan(inputs(over));
     expect(plan.status).toBe('reaches-target');

@@ -46,7 +46,7 @@ describe('possible fit causes (Silberman et al. 2005 [V]; Asplund & St Pierre 20
     expect(causeRowFor('calf-left')).toBeNull();
   });
 
-  it('lists the causes TRADE §5 cites for anterior knee pain: saddle low or forward, big gears, long cranks', () => {
+  it('lists the causes TRADE §5 cites for anterior knee pain: saddle low or forward, big gears, long cranks (Silberman et al. 2005 [V])', () => {
     expect(rankFitCauses([symptom({})]).map((c) => c.cause)).toEqual(['saddle-low', 'saddle-forward', 'big-gears', 'long-cranks']);
   });
 
@@ -109,7 +109,7 @@ describe('possible fit causes (Silberman et al. 2005 [V]; Asplund & St Pierre 20
   });
 });
 
-describe('red-flag screen (TRADE §6)', () => {
+describe('red-flag screen (TRADE §6: NICE NG59, Stiell 1996 [V])', () => {
   const urgentIds = ['saddle-numbness-persists', 'bladder-bowel-change', 'leg-weakness', 'hot-swollen-joint', 'fever-with-pain'] as const;
   const soonIds = ['pain-at-rest-or-night', 'swelling-locking-giving-way', 'numbness-persists-off-bike', 'severe-pain'] as const;
   const routineIds = ['crash-or-fall', 'not-settled-after-changes'] as const;
