@@ -63,7 +63,8 @@ try {
     NODE_ENV: 'test',
     LOG_LEVEL: 'silent',
     BCRYPT_COST: '10',
-    UPLOAD_DIR: path.join(tmp, 'uploads'),
+    // A dotted folder, as under npm start (.data/uploads), so serving files is tested the way it runs.
+    UPLOAD_DIR: path.join(tmp, '.data', 'uploads'),
     CLIENT_DIST: path.join(root, 'dist'),
     AUTH_RATE_LIMIT: '10000',
     // Tests drive the scheduler with explicit ticks; a background one would race them for jobs.

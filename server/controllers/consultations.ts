@@ -53,7 +53,7 @@ export function createConsultationController(ctx: AppContext) {
     const id = idFrom(req.params.id);
     // A referred physio sits in as a third party; everyone else must be the rider or the fitter.
     const referred = user.role === 'physio' ? await Consultation.findByPk(id) : null;
-    if (user.role === 'physio' && !(referred && (await physioHasConsentedReferral(user.id, referred.riderId)))) throw notFound('That consultation');
+    if (user.role === 'physio' && !(referred && (await physioHasConsentedReferral(user.id, referred.riderId, referred.id)))) throw notFound('That consultation');
     const consultation = referred ?? (await findOwnConsultation(user, id));
     res.json({ consultation: await present(consultation) });
   };

@@ -44,7 +44,7 @@ export function createUploadsController(ctx: AppContext) {
     res.setHeader('X-Content-Type-Options', 'nosniff');
     res.setHeader('Content-Disposition', `inline; filename="${file.downloadName}"`);
     res.setHeader('Cache-Control', 'private, max-age=300');
-    res.sendFile(file.path, { cacheControl: false, dotfiles: 'deny' }, (error) => {
+    res.sendFile(file.name, { root: file.root, cacheControl: false, dotfiles: 'deny' }, (error) => {
       if (error && !res.headersSent) next(notFound('That file'));
     });
   };

@@ -30,9 +30,13 @@ export async function mayReadHealthData(user: Express.User, riderId: number): Pr
   return relation === 'owner' || relation === 'assigned-fitter' || relation === 'referred-physio';
 }
 
-/** An accepted (or answered) referral to this physio whose share consent has not been withdrawn. */
-export async function physioHasConsentedReferral(physioId: number, riderId: number): Promise<boolean> {
-  const referrals = await Referral.findAll({ where: { physioId, riderId, status: { [Op.in]: [...PHYSIO_ACCESS_STATUSES] }, consentId: { [Op.ne]: null } } });
+/**
+ * An accepted (or answered) referral to this physio whose share consent has not been withdrawn;
+ * with a consultation id, only a referral made on that consultation counts.
+ */
+export async function physioHasConsentedReferral(physioId: number, riderId: number, consultationId?: number): Promise<boolean> {
+  const where = { physioId, riderId, status: { [Op.in]: [...PHYSIO_ACCESS_STATUSES] }, consentId: { [Op.ne]: null } };
+  const referrals = await Referral.findAll({ where: consultationId === undefined ? where : { ...where, consultationId } });
   for (const referral of referrals) {
     const consent = await Consent.findByPk(referral.consentId!);
     if (consent && !consent.withdrawnAt) return true;

@@ -14,9 +14,12 @@ export async function chatMembership(user: { id: number; role: string }, consult
   return consultation;
 }
 
-/** Physios join as a third party through an accepted referral the rider consented to. */
+/**
+ * Physios join as a third party through an accepted referral the rider consented to, made on this
+ * consultation: a referral from one fitter does not open the rider's other consultations.
+ */
 async function isReferredPhysio(user: { id: number; role: string }, consultation: Consultation): Promise<boolean> {
-  return user.role === 'physio' && (await physioHasConsentedReferral(user.id, consultation.riderId));
+  return user.role === 'physio' && (await physioHasConsentedReferral(user.id, consultation.riderId, consultation.id));
 }
 
 export function presentMessage(message: Message, attachment?: Upload | null): ChatMessage {

@@ -1,3 +1,4 @@
+import path from 'node:path';
 import type { UploadView } from '@shared/rider';
 import { UPLOAD_LIMITS } from '@shared/rider';
 import { AppError, notFound } from '../errors';
@@ -86,7 +87,9 @@ export async function deleteOwnUpload(ctx: AppContext, riderId: number, uploadId
 }
 
 export interface ServedFile {
-  path: string;
+  /** The upload folder and the stored name apart: send() refuses dotted folders (.data) in a full path. */
+  root: string;
+  name: string;
   contentType: string;
   downloadName: string;
 }
@@ -103,7 +106,8 @@ export async function readUploadFile(ctx: AppContext, viewer: Express.User, uplo
   await recordAudit(actor, { action: 'upload.read', subjectType: 'upload', subjectId: upload.id, subjectUserId: upload.riderId, detail: { variant } });
   const name = thumb ? upload.thumbnailName! : upload.storageName;
   return {
-    path: storedPath(ctx.config, name),
+    root: path.dirname(storedPath(ctx.config, name)),
+    name,
     contentType: thumb ? 'image/webp' : upload.contentType,
     downloadName: `${upload.kind}-${upload.id}${thumb ? '-thumbnail' : ''}.${name.split('.').pop()}`,
   };

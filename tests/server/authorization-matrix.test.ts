@@ -4,7 +4,7 @@ import { randomUUID } from 'node:crypto';
 import { currentConsent } from '@shared/rider';
 import type { Ack } from '@shared/http';
 import type { SaddlestepApp } from '@server/app';
-import { Intake } from '@server/models';
+import { Consultation, Intake } from '@server/models';
 import { startTestApp } from '../support/app';
 import { signedInAs } from '../support/factories';
 import { caseOnStepOne, checkInBody } from '../support/care-factories';
@@ -119,4 +119,33 @@ describe('socket events, by relation to the case', () => {
       }
     });
   }
+});
+
+describe('a referral opens only the consultation it was made on', () => {
+  it('the referred physio cannot join or read the same rider’s consultation with another fitter', async () => {
+    const other = await Consultation.create({
+      riderId: clients.owner.user.id,
+      fitterId: clients.fitterX.user.id,
+      intakeId: null,
+      status: 'booked',
+      startsAt: new Date(Date.now() + 5 * 86_400_000),
+      endsAt: new Date(Date.now() + 5 * 86_400_000 + 3_600_000),
+      holdExpiresAt: null,
+      feeMinor: 9000,
+      currency: 'EUR',
+      calendarUid: `${randomUUID()}@test`,
+      cancelledById: null,
+      cancelReason: null,
+    });
+    await clients.referred.get(`/api/consultations/${other.id}`).expect(404);
+    const socket = await socketFor(baseUrl, clients.referred);
+    try {
+      const ack = await ask<Ack<unknown>>(socket, 'room:join', { consultationId: other.id, afterSeq: 0 });
+      expect(ack.status).toBe('ERROR');
+      const own = await ask<Ack<unknown>>(socket, 'room:join', { consultationId: ids.consultation, afterSeq: 0 });
+      expect(own.status).toBe('OK');
+    } finally {
+      socket.close();
+    }
+  });
 });
