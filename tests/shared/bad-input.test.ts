@@ -6,8 +6,9 @@ import { describe, expect, it } from 'vitest';
 import { compareScores } from '@shared/fit/checkin';
 import { FitInputError } from '@shared/fit/errors';
 import { includedAngle, photoScale, video2dTo3dKneeAngle } from '@shared/fit/photo';
+import { painCapFactor } from '@shared/fit/planner';
+// Internals, by direct path: they are not part of the public modules but are checked here.
 import { distance } from '@shared/fit/photo/geometry';
-import { painCapFactor } from '@shared/fit/planner/limits';
 import { stepInstructions } from '@shared/fit/planner/instructions';
 import { gattiSaddleHeightCm, spindleToBottomBracket } from '@shared/fit/saddle-height';
 import { addDays, couplingCompensation, daysBetween } from '@shared/fit/setup';

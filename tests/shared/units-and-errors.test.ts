@@ -51,6 +51,14 @@ describe('FitInputError', () => {
     expect(() => fit.estimateSaddleHeight(null as never)).toThrow(expect.objectContaining({ field: 'saddleHeight' }));
   });
 
+  it('keeps internals out of the public modules', async () => {
+    const planner = await import('@shared/fit/planner');
+    const photo = await import('@shared/fit/photo');
+    for (const name of ['buildPlanFrom', 'effectiveLimits', 'oneStepRevertSource', 'stepInstructions', 'EPS']) expect(planner).not.toHaveProperty(name);
+    for (const name of ['distance', 'requireApart', 'MIN_POINT_SEPARATION_PX']) expect(photo).not.toHaveProperty(name);
+    expect(fit).not.toHaveProperty('buildPlanFrom');
+  });
+
   it('is exported from the fit entry point with every area', () => {
     for (const name of ['estimateSaddleHeight', 'measurePhoto', 'buildPlan', 'validatePlan', 'screenRedFlags', 'rankFitCauses', 'analyseCheckIn', 'setupSchema']) {
       expect(fit).toHaveProperty(name);

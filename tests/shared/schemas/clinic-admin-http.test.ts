@@ -3,7 +3,7 @@ import { adminRefundSchema, auditQuerySchema, deleteAccountSchema, updateUserSch
 import { signInSchema } from '@shared/auth';
 import { DEFAULT_CANCELLATION_POLICY } from '@shared/booking';
 import { clinicSettingsSchema, DEFAULT_CLINIC_SETTINGS } from '@shared/clinic';
-import { DEFAULT_STEP_CAPS, DEFAULT_WINDOW_CAPS } from '@shared/fit/planner/constants';
+import { DEFAULT_STEP_CAPS, DEFAULT_WINDOW_CAPS } from '@shared/fit/planner';
 import { ERROR_CODES, type Ack, type ApiErrorBody } from '@shared/http';
 import { problems } from './problems';
 
