@@ -123,6 +123,15 @@ describe('the knee-to-spindle offset', () => {
     expect(measurePhoto({ facing: 'left', points, scale }).kneeToSpindleMm?.value).toBeCloseTo(-20, 9);
   });
 
+  it('warns when a marked bottom bracket shows the crank more than 5° off level (our tolerance)', () => {
+    const level = measurePhoto({ facing: 'right', points: { ...points, bottomBracket: { x: 330, y: 604 } }, scale });
+    expect(level.notes.join(' ')).not.toMatch(/from level/);
+    // 170 px of crank rising 100 px: atan(100/170) ≈ 30°.
+    const tilted = measurePhoto({ facing: 'right', points: { ...points, bottomBracket: { x: 330, y: 700 } }, scale });
+    expect(tilted.notes.join(' ')).toMatch(/crank is 30° from level/);
+    expect(() => measurePhoto({ facing: 'right', points: { ...points, bottomBracket: points.spindle }, scale })).toThrow(/coincide/);
+  });
+
   it('needs a scale to be given in millimetres', () => {
     const r = measurePhoto({ facing: 'right', points: { ...points, hip: { x: 0, y: 0 }, knee: { x: 100, y: 100 }, ankle: { x: 100, y: 300 } } });
     expect(r.kneeToSpindleMm).toBeNull();

@@ -20,6 +20,22 @@ export const KOPS_NOTE =
   'Knee over pedal spindle is a starting point, not a target (Holliday & Swart 2021). ' +
   'Endurance riders often sit about 1 cm behind the spindle (common practice).';
 
+/**
+ * The offset assumes level cranks. With the bottom bracket marked, a crank more than this far from
+ * horizontal (degrees) earns a warning: our decision, about where a photo taken "level" by eye lands.
+ */
+export const CRANK_LEVEL_TOLERANCE_DEG = 5;
+
+/** A warning when the crank (bottom bracket → spindle) is off level by more than the tolerance, or null. */
+function crankLevelWarning(bottomBracket: PixelPoint, spindle: PixelPoint): string | null {
+  requireApart(['bottomBracket', 'spindle'], bottomBracket, spindle);
+  const dx = Math.abs(spindle.x - bottomBracket.x);
+  const dy = Math.abs(spindle.y - bottomBracket.y);
+  const offLevel = (Math.atan2(dy, dx) * 180) / Math.PI;
+  if (offLevel <= CRANK_LEVEL_TOLERANCE_DEG) return null;
+  return `The crank is ${offLevel.toFixed(0)}° from level, more than ${CRANK_LEVEL_TOLERANCE_DEG}°: the knee-to-spindle offset assumes level cranks, so re-take the photo with the cranks at 3 and 9 o'clock.`;
+}
+
 const round = (v: ValueWithUncertainty): ValueWithUncertainty => ({
   value: ensureFinite('value', v.value),
   plusMinus: ensureFinite('plusMinus', v.plusMinus),
@@ -43,7 +59,7 @@ function angle(a: PixelPoint, b: PixelPoint, c: PixelPoint, names: [string, stri
  */
 export function measurePhoto(input: PhotoMeasurementInput): PhotoMeasurement {
   const p = parseInput(photoMeasurementInputSchema, input, 'photo');
-  const { hip, knee, ankle, kneeFront, spindle, shoulder, toe } = p.points;
+  const { hip, knee, ankle, kneeFront, spindle, shoulder, toe, bottomBracket } = p.points;
   const n = p.clickPrecisionPx;
   const notes: string[] = [];
   const scale = p.scale ? photoScale(p.scale, n) : null;
@@ -74,6 +90,8 @@ export function measurePhoto(input: PhotoMeasurementInput): PhotoMeasurement {
     notes.push(
       'Offset taken with the cranks level; positive means the front of the knee is ahead of the pedal spindle.',
     );
+    const warning = bottomBracket ? crankLevelWarning(bottomBracket, spindle) : null;
+    if (warning) notes.push(warning);
   }
   if (kneeFront && spindle && !s) notes.push('Mark a known length to turn the knee-to-spindle offset into millimetres.');
 

@@ -12,7 +12,8 @@ export type PixelPoint = z.infer<typeof pixelPointSchema>;
  * - hip: greater trochanter; knee: lateral femoral epicondyle (knee joint centre);
  * - ankle: lateral malleolus; kneeFront: the front of the knee (or the tibial tuberosity);
  * - spindle: pedal-spindle centre; shoulder: acromion (optional, for the hip angle);
- * - toe: fifth metatarsal head (optional, for the ankle angle).
+ * - toe: fifth metatarsal head (optional, for the ankle angle);
+ * - bottomBracket: bottom-bracket centre (optional, to check the cranks are level for the offset).
  */
 export const photoPointsSchema = z.strictObject({
   hip: pixelPointSchema.optional(),
@@ -22,6 +23,7 @@ export const photoPointsSchema = z.strictObject({
   spindle: pixelPointSchema.optional(),
   shoulder: pixelPointSchema.optional(),
   toe: pixelPointSchema.optional(),
+  bottomBracket: pixelPointSchema.optional(),
 });
 export type PhotoPoints = z.infer<typeof photoPointsSchema>;
 
