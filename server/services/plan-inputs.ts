@@ -1,6 +1,7 @@
 import { physioLimitsSchema, type PlanInput, type PhysioLimits, type RiddenSetup } from '@shared/fit/planner';
 import { conflict, notFound } from '../errors';
-import { Bike, Plan, Referral, type Consultation, type SetupSnapshot } from '../models';
+import { Op } from 'sequelize';
+import { Bike, CheckIn, Plan, Referral, type Consultation, type SetupSnapshot } from '../models';
 import { getClinicSettings } from './clinic-settings';
 import { latestSubmitted } from './intakes';
 import { listSnapshots } from './setup-history';
@@ -29,22 +30,35 @@ export function riddenHistory(snapshots: SetupSnapshot[], adaptationRides: numbe
   }));
 }
 
-/** The worst pain in the rider's latest answers, 0–10. */
-async function currentPain(riderId: number): Promise<{ pain: number; level: PlanInput['redFlagLevel'] }> {
+/**
+ * The rider's state now: the worst pain and the warning-sign level from whichever is newer, the
+ * latest intake or the latest check-in (a check-in after a change says more about today than the
+ * intake before it). The red flags count as cleared once a physio has answered continue (with or
+ * without limits) on a referral closed after those answers: the physio has seen them.
+ */
+export async function currentCondition(riderId: number): Promise<{ pain: number; level: PlanInput['redFlagLevel']; cleared: boolean }> {
   const intake = await latestSubmitted(riderId);
-  const pain = Math.max(0, ...(intake?.symptoms ?? []).map((s) => s.pain ?? 0));
-  return { pain, level: intake?.triageLevel ?? 'none' };
+  const checkIn = await CheckIn.findOne({ where: { riderId }, order: [['createdAt', 'DESC'], ['id', 'DESC']] });
+  const intakeAt = intake?.submittedAt ?? intake?.createdAt ?? null;
+  const fromCheckIn = checkIn !== null && (!intakeAt || checkIn.createdAt > intakeAt);
+  const pain = fromCheckIn ? Math.max(0, ...checkIn.pains.map((p) => p.pain)) : Math.max(0, ...(intake?.symptoms ?? []).map((s) => s.pain ?? 0));
+  const level = fromCheckIn ? checkIn.analysis.referralLevel : (intake?.triageLevel ?? 'none');
+  const since = fromCheckIn ? checkIn.createdAt : intakeAt;
+  const answered = level === 'none' || !since
+    ? 0
+    : await Referral.count({ where: { riderId, status: 'closed', decision: { [Op.in]: ['continue', 'continue_with_limits'] }, closedAt: { [Op.gt]: since } } });
+  return { pain, level, cleared: answered > 0 };
 }
 
 /**
  * Limits physios set on this rider: the newest answered referral that set limits, plus a hold
  * while any plan of the rider is paused. The planner and the server's plan check always apply them.
  */
-export async function physioLimitsFor(riderId: number): Promise<PhysioLimits | undefined> {
+export async function physioLimitsFor(riderId: number, clearedRedFlags = false): Promise<PhysioLimits | undefined> {
   const withLimits = await Referral.findOne({ where: { riderId, status: 'closed', decision: 'continue_with_limits' }, order: [['closedAt', 'DESC']] });
   const held = await Plan.count({ where: { riderId, status: 'on_hold' } });
-  if (!withLimits && held === 0) return undefined;
-  return physioLimitsSchema.parse({ ...(withLimits?.limits ?? {}), hold: held > 0 });
+  if (!withLimits && held === 0 && !clearedRedFlags) return undefined;
+  return physioLimitsSchema.parse({ ...(withLimits?.limits ?? {}), hold: held > 0, clearedRedFlags });
 }
 
 /**
@@ -59,8 +73,8 @@ export async function buildPlanInputs(consultation: Consultation, bikeId: number
   const current = snapshots[snapshots.length - 1];
   if (!current) throw conflict('This bike has no recorded setup yet. Ask the rider to record it first.');
   const settings = await getClinicSettings();
-  const { pain, level } = await currentPain(consultation.riderId);
-  const physio = await physioLimitsFor(consultation.riderId);
+  const { pain, level, cleared } = await currentCondition(consultation.riderId);
+  const physio = await physioLimitsFor(consultation.riderId, cleared);
   const today = todayUtc();
   // The planner itself moves step 1 past the adaptation period of the last change in `history`.
   const startDate = options.startDate && options.startDate > today ? options.startDate : today;
