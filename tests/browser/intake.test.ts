@@ -141,6 +141,11 @@ describe('Tell us what hurts, in the browser', () => {
     await refused.waitFor();
     await expect(refused.locator('[data-test="upload-status"]').innerText()).resolves.toMatch(/whatever its name or type says/);
     await expect(refused.locator('[data-test="upload-retry"]').count()).resolves.toBe(0);
+
+    // A real photo with no declared type (as some phones hand them over) goes to the server, which reads its content.
+    const jpeg = await sharp({ create: { width: 24, height: 24, channels: 3, background: '#3b8c6e' } }).jpeg().toBuffer();
+    await page.locator('[data-test="upload-input"]').setInputFiles({ name: 'IMG_0001', mimeType: '', buffer: jpeg });
+    await page.locator('[data-test="upload-row"][data-state="done"]').nth(1).waitFor();
     await context.close();
   });
 
