@@ -11,6 +11,7 @@ import { actorFromRequest, recordAudit } from '../services/audit';
 import { HARD_BOUNDS, listPayments, listUsers, readAuditLog, saveClinicSettings, updateUser } from '../services/admin';
 import { getClinicSettings } from '../services/clinic-settings';
 import { refundPayment } from '../services/refunds';
+import { disconnectUser } from '../socket/evict';
 import { randomUUID } from 'node:crypto';
 import { z as zod } from 'zod';
 
@@ -26,7 +27,10 @@ export function createAdminController(ctx: AppContext) {
   const update: RequestHandler = async (req, res) => {
     const id = parseId(req.params.id as string);
     if (!id) throw notFound('That account');
-    const user = await updateUser(req.user!, id, req.body as z.output<typeof updateUserSchema>, actorFromRequest(req));
+    const change = req.body as z.output<typeof updateUserSchema>;
+    const user = await updateUser(req.user!, id, change, actorFromRequest(req));
+    // updateUser ended the sessions; open sockets must not outlive them.
+    if (change.status === 'disabled' || change.role) disconnectUser(ctx.io, user.id);
     res.json({ user: presentUser(user) });
   };
 

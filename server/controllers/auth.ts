@@ -9,6 +9,7 @@ import { presentUser } from '../presenters/user';
 import type { User } from '../models';
 import type { AppContext } from '../context';
 import { sendWelcome } from '../mail/account-mails';
+import { endSessionSockets } from '../socket/evict';
 
 interface AuthControllerDeps {
   passport: AppPassport;
@@ -66,8 +67,11 @@ export function createAuthController({ passport, hasher, generateCsrfToken, ctx 
 
   const signOut: RequestHandler = async (req, res) => {
     const actor = actorFromRequest(req);
+    // Read before logOut, which regenerates the session: this id is the one the tab's sockets carry.
+    const sessionId = req.sessionID;
     await new Promise<void>((resolve, reject) => req.logOut((error) => (error ? reject(error) : resolve())));
     await new Promise<void>((resolve) => req.session.destroy(() => resolve()));
+    endSessionSockets(ctx.io, sessionId);
     if (actor.actorId) await recordAudit(actor, { action: 'auth.sign_out' });
     res.clearCookie('saddlestep.sid');
     res.status(204).end();

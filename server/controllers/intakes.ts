@@ -8,6 +8,7 @@ import { listConsents, withdrawConsent } from '../services/consents';
 import { bookingReadiness } from '../services/intake-gate';
 import { discardDraft, readIntake, riderIntakes, saveDraft, submitIntake } from '../services/intakes';
 import { uploadsOfRider } from '../services/uploads';
+import { closePhysioChatSeat } from '../services/referrals';
 import type { AppContext } from '../context';
 
 function idParam(raw: unknown, what: string): number {
@@ -55,6 +56,7 @@ export function createIntakesController(ctx: AppContext) {
 
   const withdraw: RequestHandler = async (req, res) => {
     const consent = await withdrawConsent(req.user!.id, idParam(req.params.id, 'That consent'), actorFromRequest(req));
+    await closePhysioChatSeat(ctx, consent);
     res.json({ consent: presentConsent(consent) });
   };
 

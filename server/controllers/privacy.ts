@@ -10,6 +10,7 @@ import { actorFromRequest, recordAudit } from '../services/audit';
 import { archiveName, collectRiderData } from '../services/data-export';
 import { deleteRiderAccount } from '../services/account-deletion';
 import { storedPath } from '../services/upload-storage';
+import { disconnectUser } from '../socket/evict';
 
 export function createPrivacyController(ctx: AppContext, hasher: PasswordHasher) {
   /** A zip with data.json and every photo and clip, streamed so large exports use little memory. */
@@ -37,6 +38,7 @@ export function createPrivacyController(ctx: AppContext, hasher: PasswordHasher)
   const deleteAccount: RequestHandler = async (req, res) => {
     const { password } = req.body as z.output<typeof deleteAccountSchema>;
     await deleteRiderAccount(ctx, req.user!, password, hasher, actorFromRequest(req));
+    disconnectUser(ctx.io, req.user!.id);
     await new Promise<void>((resolve) => req.session.destroy(() => resolve()));
     res.clearCookie('saddlestep.sid');
     res.status(204).end();

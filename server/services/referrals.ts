@@ -9,6 +9,7 @@ import { recordAudit, type AuditActor } from './audit';
 import { giveConsent } from './consents';
 import { assertReferralMove } from './referral-states';
 import { scheduleReferralEscalation, notifyReferral } from './referral-notices';
+import { removeFromConsultation } from '../socket/evict';
 
 /** Referrals still in play for a consultation (a new one is not opened beside them). */
 export const OPEN_STATUSES = ['proposed', 'awaiting_consent', 'sent', 'received', 'accepted', 'in_progress'] as const;
@@ -110,6 +111,15 @@ export async function consentStands(referral: Referral): Promise<boolean> {
   if (!referral.consentId) return false;
   const consent = await Consent.findByPk(referral.consentId);
   return Boolean(consent && !consent.withdrawnAt);
+}
+
+/**
+ * A withdrawn share consent ends the physio's access on the next request; their open sockets must
+ * also leave the consultation's room, or they would keep receiving its chat.
+ */
+export async function closePhysioChatSeat(ctx: AppContext, consent: Consent): Promise<void> {
+  const referrals = await Referral.findAll({ where: { consentId: consent.id, physioId: { [Op.ne]: null } } });
+  for (const referral of referrals) await removeFromConsultation(ctx.io, referral.physioId!, referral.consultationId);
 }
 
 export async function referralsOfConsultation(user: Express.User, consultationId: number) {

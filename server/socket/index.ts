@@ -3,7 +3,8 @@ import { Server } from 'socket.io';
 import type { RequestHandler } from 'express';
 import type { AppPassport } from '../auth/passport';
 import type { AppContext } from '../context';
-import { userRoom } from './rooms';
+import { sessionRoom, userRoom } from './rooms';
+import { guardEvents, startSocketSweep } from './session-guard';
 import { createSendLimiter } from './rate-limit';
 import { registerHandlers } from './handlers';
 import type { AppServer } from './types';
@@ -27,8 +28,9 @@ function onlyForHandshake(middleware: RequestHandler): EngineMiddleware {
 
 /**
  * socket.io on the app's own HTTP server, sharing the signed-in session. Anonymous sockets are
- * refused before any event handler runs. Each user joins a private room for personal notices, and
- * consultation rooms on `room:join` after the membership check.
+ * refused before any event handler runs; the session is re-checked on events and by a periodic
+ * sweep (session-guard.ts), and services close sockets when access ends (evict.ts). Each user joins
+ * a private room for personal notices, and consultation rooms on `room:join` after the membership check.
  */
 export function createSocketServer(httpServer: HttpServer, { sessionMiddleware, passport, ctx }: SocketDeps): AppServer {
   const io: AppServer = new Server(httpServer, {
@@ -52,13 +54,18 @@ export function createSocketServer(httpServer: HttpServer, { sessionMiddleware, 
     socket.data.userId = user.id;
     socket.data.role = user.role;
     socket.data.displayName = user.displayName;
+    // Kept so that signing this session out closes exactly its sockets, and so events can re-check it.
+    socket.data.sessionId = (socket.request as IncomingMessage & { sessionID: string }).sessionID;
+    socket.data.sessionCheckedAt = Date.now();
     next();
   });
 
   io.on('connection', (socket) => {
-    void socket.join(userRoom(socket.data.userId));
+    void socket.join([userRoom(socket.data.userId), sessionRoom(socket.data.sessionId)]);
+    guardEvents(socket, ctx.logger);
     registerHandlers({ io, socket, ctx, sendLimiter });
   });
+  startSocketSweep(io, ctx);
 
   return io;
 }

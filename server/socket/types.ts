@@ -7,6 +7,10 @@ export interface SocketData {
   userId: number;
   role: string;
   displayName: string;
+  /** The express-session id the handshake carried; re-checked while the socket is open. */
+  sessionId: string;
+  /** When the session was last found valid (ms since epoch), so events re-check it cheaply. */
+  sessionCheckedAt: number;
 }
 
 export type AppServer = Server<ClientToServerEvents, ServerToClientEvents, Record<string, never>, SocketData>;
