@@ -7,7 +7,7 @@ import { expireHolds } from '../services/booking';
 import { createScheduler } from './scheduler';
 import { CHAT_NOTICE, sendChatNotice } from '../services/chat-notices';
 import { REFERRAL_ESCALATE, escalateReferral } from '../services/referral-notices';
-import { CHECKIN_DUE, CHECKIN_OVERDUE, markCheckInOverdue, remindCheckIn } from '../services/follow-up-jobs';
+import { CHECKIN_DUE, CHECKIN_OVERDUE, CHECKIN_OVERDUE_MAIL, markCheckInOverdue, remindCheckIn, sendOverdueMail } from '../services/follow-up-jobs';
 
 /**
  * The scheduler with Saddlestep's job handlers. `sequelize` defaults to the app's pool; tests pass
@@ -26,6 +26,7 @@ export function createAppScheduler(ctx: AppContext, options: { sequelize?: Seque
       [REFERRAL_ESCALATE]: (payload) => escalateReferral(ctx, payload),
       [CHECKIN_DUE]: (payload) => remindCheckIn(ctx, payload),
       [CHECKIN_OVERDUE]: (payload) => markCheckInOverdue(ctx, payload),
+      [CHECKIN_OVERDUE_MAIL]: (payload) => sendOverdueMail(ctx, payload),
       [BOOKING_REMINDER]: async (payload) => {
         const consultation = await Consultation.findByPk(Number(payload.consultationId));
         if (!consultation || consultation.status !== 'booked' || consultation.calendarSequence !== Number(payload.sequence)) return;

@@ -15,15 +15,23 @@ export interface SchedulerOptions {
   batchSize?: number;
 }
 
-/** A running job not finished within this time is assumed lost with its process and retried. */
-const STALE_AFTER_MS = 10 * 60_000;
+/**
+ * A running job whose claim has not been renewed for this long is assumed lost with its process and
+ * retried. A live process renews the claim every HEARTBEAT_MS while the job runs, so a slow job
+ * (a mail server taking minutes) is never handed to a second process while the first still works.
+ */
+export const STALE_AFTER_MS = 10 * 60_000;
+const HEARTBEAT_MS = 60_000;
+/** Batches per tick: enough for a job's follow-on jobs, bounded so a job that re-queues itself cannot spin. */
+const FOLLOW_ON_ROUNDS = 4;
 const MAX_ATTEMPTS = 5;
 
 /**
  * Runs due rows of `scheduled_jobs`. Each tick claims a batch with SELECT … FOR UPDATE SKIP LOCKED
  * and marks it running in the same transaction, so several server processes can tick at once and
- * every job is claimed by exactly one of them. The claim commits before the job runs; a job is
- * retried only if its process died mid-run (then at-least-once, documented in DEVELOPERS.md).
+ * every job is claimed by exactly one of them. The claim commits before the job runs and is renewed
+ * while it runs; a job is retried only if its process died mid-run (then at-least-once, documented
+ * in DEVELOPERS.md). Each job sends at most one e-mail, so a retry never repeats one already sent.
  */
 export function createScheduler(options: SchedulerOptions) {
   const { sequelize, logger, handlers } = options;
@@ -65,23 +73,65 @@ export function createScheduler(options: SchedulerOptions) {
     );
   }
 
-  /** One pass: periodic work, then every due job. Returns how many jobs ran. */
+  /**
+   * Keep the batch's claims fresh until each job finishes (jobs later in the batch wait their turn
+   * and must not look abandoned either), so no other process takes them over as stale.
+   */
+  function heartbeat(unfinished: Set<number>): () => void {
+    const timer = setInterval(() => {
+      if (unfinished.size === 0) return;
+      sequelize
+        .query("UPDATE scheduled_jobs SET locked_at = ? WHERE id IN (?) AND locked_by = ? AND status = 'running'", { replacements: [new Date(), [...unfinished], instanceId] })
+        .catch((error: unknown) => logger.error({ err: error }, 'scheduler heartbeat failed'));
+    }, HEARTBEAT_MS);
+    timer.unref();
+    return () => clearInterval(timer);
+  }
+
+  /**
+   * One pass: periodic work, then every due job, including jobs those jobs queued for now (an
+   * overdue mark queues its e-mails), up to a few rounds. Returns how many jobs ran.
+   */
   async function tick(now = new Date()): Promise<number> {
     for (const task of options.periodic ?? []) await task().catch((error: unknown) => logger.error({ err: error }, 'periodic task failed'));
+    let ran = 0;
+    for (let round = 0; round < FOLLOW_ON_ROUNDS; round += 1) {
+      // Later rounds look at the clock again, so jobs queued during this tick count as due.
+      const count = await runBatch(round === 0 ? now : new Date(Math.max(now.getTime(), Date.now())));
+      ran += count;
+      if (count === 0) break;
+    }
+    return ran;
+  }
+
+  async function runBatch(now: Date): Promise<number> {
     const jobs = await claim(now);
-    for (const job of jobs) {
-      const handler = handlers[job.kind];
-      const payload = (typeof job.payload === 'string' ? JSON.parse(job.payload) : job.payload) as Record<string, unknown>;
-      try {
-        if (!handler) throw new Error(`no handler for job kind ${job.kind}`);
-        await handler(payload);
-        await finish(job.id, { ok: true });
-      } catch (error) {
-        logger.error({ err: error, jobId: job.id, kind: job.kind }, 'scheduled job failed');
-        await finish(job.id, { ok: false, error: error instanceof Error ? error.message : String(error), attempts: job.attempts + 1 });
+    const unfinished = new Set(jobs.map((j) => j.id));
+    const stopHeartbeat = heartbeat(unfinished);
+    try {
+      for (const job of jobs) {
+        await runOne(job);
+        unfinished.delete(job.id);
       }
+    } finally {
+      stopHeartbeat();
     }
     return jobs.length;
+  }
+
+  type ClaimedJob = Awaited<ReturnType<typeof claim>>[number];
+
+  async function runOne(job: ClaimedJob) {
+    const handler = handlers[job.kind];
+    const payload = (typeof job.payload === 'string' ? JSON.parse(job.payload) : job.payload) as Record<string, unknown>;
+    try {
+      if (!handler) throw new Error(`no handler for job kind ${job.kind}`);
+      await handler(payload);
+      await finish(job.id, { ok: true });
+    } catch (error) {
+      logger.error({ err: error, jobId: job.id, kind: job.kind }, 'scheduled job failed');
+      await finish(job.id, { ok: false, error: error instanceof Error ? error.message : String(error), attempts: job.attempts + 1 });
+    }
   }
 
   return {

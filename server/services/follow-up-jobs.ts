@@ -41,13 +41,33 @@ export async function remindCheckIn(ctx: AppContext, payload: Record<string, unk
   await ctx.mailer.send({ to: rider.email, ...mail });
 }
 
-/** Mark the step overdue and tell rider and fitter (once: the job runs once per step). */
+/** One e-mail each to rider and fitter when a check-in is overdue: a job per e-mail, so a retry resends only the one that failed. */
+export const CHECKIN_OVERDUE_MAIL = 'checkin-overdue-mail';
+const OVERDUE_RECIPIENTS = ['rider', 'fitter'] as const;
+
+/**
+ * Mark the step overdue and queue one e-mail job per recipient. Sends nothing itself: if the
+ * fitter's mail server fails, only the fitter's job is retried; the rider is not mailed twice.
+ * Scheduling is keyed per step and recipient, so a re-run of this job queues nothing new.
+ */
 export async function markCheckInOverdue(ctx: AppContext, payload: Record<string, unknown>) {
   const found = await load(payload);
   if (!found) return;
-  await found.step.update({ overdueAt: new Date() });
+  await ctx.sequelize.transaction(async (transaction) => {
+    await found.step.update({ overdueAt: found.step.overdueAt ?? new Date() }, { transaction });
+    for (const to of OVERDUE_RECIPIENTS) {
+      await scheduleJob({ kind: CHECKIN_OVERDUE_MAIL, uniqueKey: `${CHECKIN_OVERDUE_MAIL}:${found.step.id}:${to}`, runAt: new Date(), payload: { ...payload, to } }, { transaction });
+    }
+  });
+}
+
+/** One overdue e-mail, to the rider or the fitter; skipped if the rider has checked in since. */
+export async function sendOverdueMail(ctx: AppContext, payload: Record<string, unknown>) {
+  const found = await load(payload);
+  if (!found) return;
   const [rider, fitter] = await Promise.all([User.findByPk(found.plan.riderId), User.findByPk(found.plan.fitterId)]);
-  if (rider) {
+  if (!rider) return;
+  if (payload.to === 'rider') {
     await ctx.mailer.send({
       to: rider.email,
       ...renderMail({
@@ -56,8 +76,7 @@ export async function markCheckInOverdue(ctx: AppContext, payload: Record<string
         action: { label: 'Log a check-in', url: `${publicUrl(ctx)}/plan` },
       }),
     });
-  }
-  if (fitter && rider) {
+  } else if (payload.to === 'fitter' && fitter) {
     await ctx.mailer.send({
       to: fitter.email,
       ...renderMail({
