@@ -2,9 +2,10 @@ import { Op, UniqueConstraintError } from 'sequelize';
 import { CARE_STATES } from '@shared/consultation';
 import { HISTORY_PAGE_MAX, type ChatMessage, type ChatCursor as CursorView } from '@shared/chat';
 import { badRequest, notFound } from '../errors';
-import { ChatCursor, Consultation, Message, Referral, Upload, User } from '../models';
+import { ChatCursor, Consent, Consultation, Message, Referral, Upload, User } from '../models';
 import type { AppContext } from '../context';
 import { physioHasConsentedReferral } from './access';
+import { PHYSIO_ACCESS_STATUSES } from './referral-states';
 
 /** Who may take part in a consultation's chat; everyone else is told it does not exist. */
 export async function chatMembership(user: { id: number; role: string }, consultationId: number): Promise<Consultation> {
@@ -59,6 +60,9 @@ export async function postMessage(
 ): Promise<{ message: ChatMessage; created: boolean }> {
   let attachment: Upload | null = null;
   if (input.attachmentId !== undefined) {
+    // Our decision: photos and clips come from the rider's own upload pipeline (metadata stripped,
+    // counted against the rider's limit). Fitters and physios write; they do not attach.
+    if (sender.id !== consultation.riderId) throw badRequest('Only the rider adds photos and clips to the chat.', { attachmentId: 'Only the rider adds photos and clips.' });
     attachment = await Upload.findOne({ where: { id: input.attachmentId, riderId: consultation.riderId } });
     if (!attachment) throw badRequest('That file is not one of this rider’s uploads.', { attachmentId: 'Upload the file first, then attach it.' });
   }
@@ -118,8 +122,22 @@ export async function cursorsOf(consultationId: number): Promise<CursorView[]> {
   return rows.map((r) => ({ userId: r.userId, deliveredSeq: r.deliveredSeq, readSeq: r.readSeq }));
 }
 
+/**
+ * Everyone who may read this consultation's chat now: rider, fitter, and each physio with an
+ * accepted referral on it whose share consent still stands (a withdrawn consent removes them).
+ */
+export async function chatRecipients(consultation: Consultation): Promise<number[]> {
+  const referrals = await Referral.findAll({
+    where: { consultationId: consultation.id, physioId: { [Op.ne]: null }, consentId: { [Op.ne]: null }, status: { [Op.in]: [...PHYSIO_ACCESS_STATUSES] } },
+    attributes: ['physioId', 'consentId'],
+  });
+  const standing = referrals.length ? await Consent.findAll({ where: { id: { [Op.in]: referrals.map((r) => r.consentId!) }, withdrawnAt: null }, attributes: ['id'] }) : [];
+  const consented = new Set(standing.map((c) => c.id));
+  const physioIds = referrals.filter((r) => consented.has(r.consentId!)).map((r) => r.physioId!);
+  return [...new Set([consultation.riderId, consultation.fitterId, ...physioIds])];
+}
+
 export async function participantsOf(consultation: Consultation) {
-  const physioIds = (await Referral.findAll({ where: { consultationId: consultation.id, physioId: { [Op.ne]: null }, status: { [Op.in]: ['accepted', 'in_progress', 'closed'] } }, attributes: ['physioId'] })).map((r) => r.physioId!);
-  const users = await User.findAll({ where: { id: { [Op.in]: [consultation.riderId, consultation.fitterId, ...physioIds] } }, attributes: ['id', 'displayName', 'role'] });
+  const users = await User.findAll({ where: { id: { [Op.in]: await chatRecipients(consultation) } }, attributes: ['id', 'displayName', 'role'] });
   return users.map((u) => ({ id: u.id, displayName: u.displayName, role: u.role }));
 }

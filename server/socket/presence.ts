@@ -11,7 +11,12 @@ export async function announcePresence(io: AppServer, consultationId: number): P
   io.to(consultationRoom(consultationId)).emit('presence:changed', { consultationId, online: await onlineIn(io, consultationId) });
 }
 
-/** True when the user has no open socket at all (then they get an e-mail notice instead). */
-export async function isOffline(io: AppServer, userId: number): Promise<boolean> {
-  return (await io.in(userRoom(userId)).fetchSockets()).length === 0;
+/**
+ * True when none of the user's sockets is in this consultation's room. The socket opens at sign-in
+ * on every page, so "has a socket" says nothing about whether they can see the thread; a rider
+ * signed in on another page is away from this chat and gets the e-mail notice.
+ */
+export async function isAwayFrom(io: AppServer, userId: number, consultationId: number): Promise<boolean> {
+  const room = consultationRoom(consultationId);
+  return !(await io.in(userRoom(userId)).fetchSockets()).some((s) => s.rooms.has(room));
 }

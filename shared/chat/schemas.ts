@@ -38,14 +38,24 @@ export const historySchema = z.strictObject({
   limit: z.number().int().min(1).max(HISTORY_PAGE_MAX).default(50),
 });
 
+export const leaveRoomSchema = z.strictObject({ consultationId });
 export const receiptSchema = z.strictObject({ consultationId, seq });
 export const typingSchema = z.strictObject({ consultationId, typing: z.boolean() });
+/** `unread:list` takes no arguments; an empty object keeps every event's payload an object. */
+export const unreadListSchema = z.strictObject({});
 
 export type JoinRoomInput = z.input<typeof joinRoomSchema>;
 export type SendMessageInput = z.input<typeof sendMessageSchema>;
 export type HistoryInput = z.input<typeof historySchema>;
 export type ReceiptInput = z.input<typeof receiptSchema>;
 export type TypingInput = z.input<typeof typingSchema>;
+export type LeaveRoomInput = z.input<typeof leaveRoomSchema>;
+
+/** Messages from others after the reader's read cursor, per consultation (the unread badge). */
+export interface UnreadCount {
+  consultationId: number;
+  count: number;
+}
 
 export const MESSAGE_KINDS = ['text', 'plan', 'system'] as const;
 export type MessageKind = (typeof MESSAGE_KINDS)[number];

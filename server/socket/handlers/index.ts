@@ -6,6 +6,7 @@ import { messageSend } from './message-send';
 import { roomJoin } from './room-join';
 import { roomLeave } from './room-leave';
 import { typingSet } from './typing-set';
+import { unreadList } from './unread-list';
 
 /** Bind every event of one connected socket. */
 export function registerHandlers(deps: HandlerDeps) {
@@ -17,6 +18,7 @@ export function registerHandlers(deps: HandlerDeps) {
   socket.on('message:delivered', messageReceipt(deps, 'deliveredSeq'));
   socket.on('message:read', messageReceipt(deps, 'readSeq'));
   socket.on('typing:set', typingSet(deps));
+  socket.on('unread:list', unreadList(deps));
   socket.on('disconnecting', () => {
     const rooms = [...socket.rooms].filter((room) => room.startsWith('consultation:'));
     // After the socket has left, tell each room who is still there.

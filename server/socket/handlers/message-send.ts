@@ -4,7 +4,7 @@ import { withAck } from '../ack';
 import { consultationRoom } from '../rooms';
 import type { HandlerDeps } from '../types';
 import { chatMembership, postMessage } from '../../services/chat';
-import { noticeOfflineRecipients } from '../../services/chat-notices';
+import { noticeRecipients } from '../../services/chat-notices';
 
 /**
  * Store, then acknowledge, then broadcast. The ack is sent only after the row is committed, so a
@@ -23,7 +23,7 @@ export function messageSend({ io, socket, ctx, sendLimiter }: HandlerDeps) {
     });
     if (created) {
       socket.to(consultationRoom(consultation.id)).emit('typing:changed', { consultationId: consultation.id, userId: socket.data.userId, typing: false });
-      await noticeOfflineRecipients(ctx, io, consultation, socket.data.userId);
+      await noticeRecipients(ctx, io, consultation, socket.data.userId);
     }
     return message;
   });
