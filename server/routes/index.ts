@@ -1,10 +1,11 @@
 import { Router, type RequestHandler } from 'express';
-import { accountDecisionSchema, registerSchema, signInSchema } from '@shared/auth';
+import { accountDecisionSchema, accountSettingsSchema, registerSchema, signInSchema } from '@shared/auth';
 import { validateBody } from '../middleware/validate';
 import { requireRole, requireSignedIn } from '../middleware/require-role';
 import { apiNotFound } from '../middleware/error-handler';
 import type { createAuthController } from '../controllers/auth';
 import * as homes from '../controllers/homes';
+import { updateAccount } from '../controllers/account';
 import { createAdminAccountsController } from '../controllers/admin-accounts';
 import type { AppContext } from '../context';
 import { createRiderJourneyRouter } from './rider-journey';
@@ -37,6 +38,7 @@ export function createApiRouter(ctx: AppContext, { auth, authRateLimit, health, 
   api.post('/auth/sign-in', authRateLimit, validateBody(signInSchema), auth.signIn);
   api.post('/auth/sign-out', requireSignedIn, auth.signOut);
   api.get('/auth/me', requireSignedIn, auth.me);
+  api.patch('/auth/me', requireSignedIn, validateBody(accountSettingsSchema), updateAccount);
 
   api.get('/rider/home', requireRole('rider'), homes.riderHome);
   api.get('/fitter/home', requireRole('fitter'), homes.fitterHome);

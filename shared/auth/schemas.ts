@@ -71,6 +71,13 @@ export const publicUserSchema = z.object({
 });
 export type PublicUser = z.infer<typeof publicUserSchema>;
 
+/** PATCH /api/auth/me — the name others see and the zone every time is shown in. */
+export const accountSettingsSchema = z.strictObject(
+  { displayName, timeZone: timeZoneSchema },
+  { error: (issue) => (issue.code === 'unrecognized_keys' ? `Unexpected field: ${issue.keys.join(', ')}.` : undefined) },
+);
+export type AccountSettings = z.infer<typeof accountSettingsSchema>;
+
 export const accountDecisionSchema = z.strictObject({
   decision: z.enum(['approve', 'reject'], { error: 'Choose approve or reject.' }),
 });

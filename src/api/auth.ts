@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { publicUserSchema, type PublicUser, type RegisterInput, type SignInInput } from '@shared/auth';
+import { publicUserSchema, type AccountSettings, type PublicUser, type RegisterInput, type SignInInput } from '@shared/auth';
 import { http } from './http';
 
 const userEnvelope = z.object({ user: publicUserSchema });
@@ -22,6 +22,10 @@ export const authApi = {
   },
   register(input: RegisterInput): Promise<RegisterResult> {
     return http.post('/api/auth/register', input, registerResult);
+  },
+  async updateAccount(input: AccountSettings): Promise<PublicUser> {
+    const { user } = await http.patch('/api/auth/me', input, userEnvelope);
+    return user;
   },
   signOut(): Promise<void> {
     return http.postEmpty('/api/auth/sign-out', undefined, { expectUnauthorized: true });

@@ -21,6 +21,7 @@ export const ROUTE = {
   fitterHome: 'fitter-home',
   physioHome: 'physio-home',
   adminHome: 'admin-home',
+  account: 'account',
   riderAboutMe: 'rider-about-me',
   riderBike: 'rider-bike',
   riderIntake: 'rider-intake',
@@ -49,6 +50,7 @@ export const routes: RouteRecordRaw[] = [
   { path: '/fitter', name: ROUTE.fitterHome, component: () => import('@/views/FitterHomeView.vue'), meta: { roles: ['fitter'], title: 'Today' } },
   { path: '/physio', name: ROUTE.physioHome, component: () => import('@/views/PhysioHomeView.vue'), meta: { roles: ['physio'], title: 'Referrals' } },
   { path: '/admin', name: ROUTE.adminHome, component: () => import('@/views/AdminHomeView.vue'), meta: { roles: ['admin'], title: 'Clinic' } },
+  { path: '/account', name: ROUTE.account, component: () => import('@/views/AccountView.vue'), meta: { roles: ['rider', 'fitter', 'physio', 'admin'], title: 'Your account' } },
   // The rider's journey before booking: profile and bikes, then the intake with photos.
   { path: '/rider/about-me', name: ROUTE.riderAboutMe, component: () => import('@/views/AboutMeView.vue'), meta: { roles: ['rider'], title: 'About me · My bikes' } },
   { path: '/rider/bikes/:id(\\d+)', name: ROUTE.riderBike, component: () => import('@/views/BikeView.vue'), meta: { roles: ['rider'], title: 'My bike' } },

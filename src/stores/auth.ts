@@ -1,6 +1,6 @@
 import { computed, ref } from 'vue';
 import { defineStore } from 'pinia';
-import type { PublicUser, RegisterInput, SignInInput } from '@shared/auth';
+import type { AccountSettings, PublicUser, RegisterInput, SignInInput } from '@shared/auth';
 import { authApi, type RegisterResult } from '@/api/auth';
 import { bindHttpSession } from '@/api/http';
 
@@ -80,10 +80,15 @@ export const useAuthStore = defineStore('auth', () => {
     }
   }
 
+  async function updateAccount(input: AccountSettings): Promise<PublicUser> {
+    user.value = await authApi.updateAccount(input);
+    return user.value;
+  }
+
   /** The account no longer exists (the rider erased it): forget it here; there is no session left to end. */
   function forgetDeletedAccount(): void {
     forget();
   }
 
-  return { user, csrfToken, loaded, sessionEndedCount, role, isSignedIn, ensureLoaded, signIn, register, signOut, forgetDeletedAccount };
+  return { user, csrfToken, loaded, sessionEndedCount, role, isSignedIn, ensureLoaded, signIn, register, signOut, updateAccount, forgetDeletedAccount };
 });

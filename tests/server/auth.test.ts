@@ -3,7 +3,7 @@ import request from 'supertest';
 import { AuditEntry, User } from '@server/models';
 import { SESSION_COOKIE, type SaddlestepApp } from '@server/app';
 import { browserLikeAgent, startTestApp } from '../support/app';
-import { buildUser, TEST_PASSWORD, uniqueEmail } from '../support/factories';
+import { buildUser, signedInAs, TEST_PASSWORD, uniqueEmail } from '../support/factories';
 
 let saddlestep: SaddlestepApp;
 beforeAll(async () => {
@@ -183,5 +183,43 @@ describe('GET /api/auth/me', () => {
     const res = await request(saddlestep.app).get('/api/auth/me');
     expect(res.status).toBe(401);
     expect(res.body.error).toEqual({ code: 'not_signed_in', message: 'Please sign in to continue.' });
+  });
+});
+
+describe('PATCH /api/auth/me', () => {
+  it('changes the name and time zone of any role, and audits which fields changed', async () => {
+    for (const role of ['rider', 'fitter', 'physio', 'admin'] as const) {
+      const client = await signedInAs(saddlestep.app, role);
+      const res = await client.agent.patch('/api/auth/me').set('X-CSRF-Token', client.csrfToken).send({ displayName: 'Renamed Person', timeZone: 'Asia/Tokyo' });
+      expect(res.status).toBe(200);
+      expect(res.body.user).toMatchObject({ displayName: 'Renamed Person', timeZone: 'Asia/Tokyo', role });
+      expect((await client.get('/api/auth/me')).body.user.timeZone).toBe('Asia/Tokyo');
+      const audit = await AuditEntry.findOne({ where: { action: 'account.settings_changed', subjectId: client.user.id } });
+      expect(audit?.detail).toEqual({ fields: ['displayName', 'timeZone'] });
+    }
+  });
+
+  it('refuses an unknown zone, a script-like name, extra fields and a role change, and writes nothing', async () => {
+    const client = await signedInAs(saddlestep.app, 'rider');
+    const bodies = [
+      [{ displayName: 'Ok Name', timeZone: 'Mars/Olympus' }, /time zone from the list/],
+      [{ displayName: '<script>x</script>', timeZone: 'UTC' }, /cannot contain < or >/],
+      [{ displayName: 'Ok Name', timeZone: 'UTC', role: 'admin' }, /Unexpected field: role/],
+      [{ displayName: 'x'.repeat(81), timeZone: 'UTC' }, /at most 80 characters/],
+    ] as const;
+    for (const [body, message] of bodies) {
+      const res = await client.agent.patch('/api/auth/me').set('X-CSRF-Token', client.csrfToken).send(body);
+      expect(res.status).toBe(400);
+      expect(res.body.error.message).toMatch(message);
+    }
+    const stored = await User.findByPk(client.user.id);
+    expect(stored).toMatchObject({ displayName: client.user.displayName, timeZone: client.user.timeZone, role: 'rider' });
+  });
+
+  it('needs a session and the forgery token', async () => {
+    const guest = await browserLikeAgent(saddlestep.app);
+    expect((await guest.patch('/api/auth/me', { displayName: 'A', timeZone: 'UTC' })).status).toBe(401);
+    const client = await signedInAs(saddlestep.app, 'rider');
+    expect((await client.agent.patch('/api/auth/me').send({ displayName: 'A', timeZone: 'UTC' })).status).toBe(403);
   });
 });

@@ -15,8 +15,7 @@ type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
  */
 const GUARDED_ROUTES: { method: Method; path: string; roles: Role[]; body?: object }[] = [
   { method: 'get', path: '/api/rider/home', roles: ['rider'] },
-  { method: 'get', path: '/api/fitter/home', roles: ['fitter'] },
-  { method: 'get', path: '/api/physio/home', roles: ['physio'] },
+  { method: 'patch', path: '/api/auth/me', roles: ['rider', 'fitter', 'physio', 'admin'], body: {} },
   { method: 'get', path: '/api/admin/home', roles: ['admin'] },
   { method: 'get', path: '/api/admin/accounts/pending', roles: ['admin'] },
   { method: 'post', path: '/api/admin/accounts/4294967295/decision', roles: ['admin'], body: { decision: 'approve' } },
