@@ -2,11 +2,14 @@ import { Op, type Transaction } from 'sequelize';
 import { randomUUID } from 'node:crypto';
 import { buildPlan, validatePlan, type PlanInput, type Plan as PlanBody } from '@shared/fit/planner';
 import { addDays } from '@shared/fit/setup';
+import type { ConsultationState } from '@shared/consultation';
+import { planSendBlocker } from '@shared/plan';
 import { AppError, conflict, notFound, badRequest } from '../errors';
 import { Consultation, Plan, PlanStep, SetupSnapshot } from '../models';
 import type { AppContext } from '../context';
 import { transitionConsultation } from './consultation-states';
 import { buildPlanInputs } from './plan-inputs';
+import { planDifferences } from './plan-compare';
 import { latestTodayAnywhere } from '@shared/rider';
 import { recordSnapshot } from './setup-history';
 import { recordAudit, type AuditActor } from './audit';
@@ -14,9 +17,6 @@ import { postMessage } from './chat';
 import { consultationRoom } from '../socket/rooms';
 import { scheduleCheckInJobs } from './follow-up-jobs';
 import { nextStepBlocker } from './check-ins';
-
-/** States in which a fitter may send a plan. */
-const PLANNING_STATES = ['booked', 'in_session', 'plan_active'] as const;
 
 /** Create the step rows for a stored plan: step 1 is current, the rest wait their turn. */
 async function createStepRows(plan: Plan, body: PlanBody, transaction: Transaction) {
@@ -56,22 +56,30 @@ async function announcePlan(ctx: AppContext, consultation: Consultation, plan: P
  * Store a plan the fitter sends. The server rebuilds the planner inputs from stored facts and
  * checks the sent plan with the shared `validatePlan`; any violation (over a cap, a window, a
  * physio limit, broken coupling, a plan that should have been refused) refuses the whole plan.
+ * Then it builds the plan itself from the same inputs and the fitter's target and start date:
+ * the sent plan must match it (it is what the fitter previewed), and the server's build is what
+ * is stored, so instructions, limits, reasons and dates never come from the client.
  */
 export async function sendPlan(ctx: AppContext, fitter: Express.User, consultationId: number, input: { bikeId: number; target: PlanInput['target']; startDate?: string; plan: unknown }, actor: AuditActor) {
   const consultation = await Consultation.findOne({ where: { id: consultationId, fitterId: fitter.id } });
   if (!consultation) throw notFound('That consultation');
-  if (!(PLANNING_STATES as readonly string[]).includes(consultation.status)) throw conflict('A plan can be sent once the session is booked, and not while the plan is paused.');
+  assertMaySendPlan(consultation.status);
   const { inputs } = await buildPlanInputs(consultation, input.bikeId, { target: input.target, startDate: input.startDate });
   const violations = validatePlan(input.plan, inputs);
   if (violations.length > 0) {
     throw new AppError(422, 'plan_over_limits', `The plan breaks ${violations.length} safety rule${violations.length === 1 ? '' : 's'}; nothing was sent.`, undefined, { violations });
   }
-  const body = input.plan as PlanBody;
+  const body = buildPlan(inputs);
   if (body.status === 'refused' || body.steps.length === 0) throw conflict(body.reasons[0]?.message ?? 'This plan has no steps to send.');
+  const differences = planDifferences(input.plan, body);
+  if (differences.length > 0) {
+    throw new AppError(422, 'plan_changed', `The plan differs from the one built from the case now (${differences.slice(0, 3).join('; ')}). Nothing was sent: check the preview and send again.`, undefined, { differences });
+  }
 
   const plan = await ctx.sequelize.transaction(async (transaction) => {
     const locked = await Consultation.findByPk(consultation.id, { transaction, lock: transaction.LOCK.UPDATE });
-    if (locked!.status === 'booked') await transitionConsultation(ctx, locked!, 'in_session', { actorId: fitter.id, note: 'plan sent', transaction });
+    // Checked again under the lock: a hold or a finish may have landed since the first read.
+    assertMaySendPlan(locked!.status);
     if (locked!.status === 'in_session') await transitionConsultation(ctx, locked!, 'plan_active', { actorId: fitter.id, note: 'plan sent', transaction });
     await supersedeActive(consultation.riderId, input.bikeId, transaction);
     const stored = await Plan.create(
@@ -84,6 +92,12 @@ export async function sendPlan(ctx: AppContext, fitter: Express.User, consultati
   });
   await announcePlan(ctx, consultation, plan, fitter.id);
   return plan;
+}
+
+/** The plan-sending rule (shared/plan/send-rule.ts); `session_not_started` lets a client tell that case apart. */
+function assertMaySendPlan(status: ConsultationState): void {
+  const blocker = planSendBlocker(status);
+  if (blocker) throw new AppError(409, status === 'booked' ? 'session_not_started' : 'conflict', blocker);
 }
 
 /** The plan a rider or the assigned fitter may see, or 404. */
@@ -116,6 +130,7 @@ export async function applyStep(ctx: AppContext, rider: Express.User, planId: nu
     if (appliedOn < row.earliestDate) throw badRequest(`This step can be made from ${row.earliestDate}, after the adaptation period.`, { appliedOn: `Choose ${row.earliestDate} or later.` });
     if (appliedOn > latestTodayAnywhere()) throw badRequest('The date cannot be in the future.', { appliedOn: 'Choose today or an earlier day.' });
 
+    // The stored plan is the server's own build (sendPlan, revertToSnapshot), so its limits are the server's.
     const adaptationDays = plan.plan.limits.adaptationDays;
     const snapshot = await recordSnapshot(plan.bikeId, step.setupAfter, plan.kind === 'revert' ? 'revert' : 'step', rider.id, {
       stepId: row.id,

@@ -4,7 +4,11 @@ import { photoMeasurementInputSchema } from '../fit/photo/schemas';
 
 const id = (what: string) => z.number({ error: `Say which ${what}.` }).int().positive().max(4_294_967_295);
 
-/** POST /api/consultations/:id/plans. `plan` is re-checked in full by the server's validatePlan. */
+/**
+ * POST /api/consultations/:id/plans. The server builds the plan itself from its own inputs, the
+ * `target` and `startDate`; `plan` is the preview the fitter saw, re-checked by `validatePlan` and
+ * compared with the server's build (a difference is refused), never stored.
+ */
 export const sendPlanSchema = z.strictObject({
   bikeId: id('bike'),
   target: setupSchema,

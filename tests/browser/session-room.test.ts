@@ -109,6 +109,8 @@ describe('the session room in the browser', () => {
 
   it('sends a plan from the plan builder; the rider sees step 1 on My plan and marks it made', async () => {
     const c = await bookedCase();
+    // A plan is sent once the session has started (shared/plan/send-rule.ts).
+    await c.fitter.post(`/api/consultations/${c.consultation.id}/start`).expect(200);
     const fitterTab = await signedInTab(c.fitter.user.email, '/fitter');
     const fitter = fitterTab.page;
     await openRoom(fitter, c, 'plan');

@@ -19,6 +19,9 @@ afterAll(async () => {
 
 const today = () => new Date().toISOString().slice(0, 10);
 
+/** A case whose live session has started: plans are sent from then on (shared/plan/send-rule.ts). */
+const startedCase = () => caseWithBike(saddlestep.app, { started: true });
+
 /** Inputs from the server, a target, and the plan the shared planner makes from them (as the workspace does). */
 async function preview(c: Awaited<ReturnType<typeof caseWithBike>>, target: PlanInput['target']) {
   const res = await c.fitter.get(`/api/consultations/${c.consultation.id}/plan-inputs?bikeId=${c.bikeId}`).expect(200);
@@ -44,7 +47,7 @@ describe('plan inputs and sending', () => {
   });
 
   it('stores a plan within the caps, activates the consultation and posts a plan card in the chat', async () => {
-    const c = await caseWithBike(saddlestep.app);
+    const c = await startedCase();
     const res = await sendPlan(c, { ...TEST_SETUP, saddleHeight: TEST_SETUP.saddleHeight + 6 });
     expect(res.status).toBe(201);
     expect(res.body.plan.steps[0]).toMatchObject({ index: 1, state: 'current' });
@@ -55,7 +58,7 @@ describe('plan inputs and sending', () => {
   });
 
   it('refuses a plan whose step is over the cap, even if the client was bypassed, and stores nothing', async () => {
-    const c = await caseWithBike(saddlestep.app);
+    const c = await startedCase();
     const target = { ...TEST_SETUP, saddleHeight: TEST_SETUP.saddleHeight + 6 };
     const res = await sendPlan(c, target, (plan) => {
       // Squash the plan into one 6 mm jump, twice the default per-step cap.
@@ -70,7 +73,7 @@ describe('plan inputs and sending', () => {
   });
 
   it('refuses a plan that starts from another setup or is malformed', async () => {
-    const c = await caseWithBike(saddlestep.app);
+    const c = await startedCase();
     const target = { ...TEST_SETUP, saddleHeight: TEST_SETUP.saddleHeight + 3 };
     const wrongBase = await sendPlan(c, target, (plan) => (plan.baseline = { ...plan.baseline, saddleHeight: 700 }));
     expect(wrongBase.status).toBe(422);
@@ -81,7 +84,7 @@ describe('plan inputs and sending', () => {
   });
 
   it('lets only the assigned fitter send a plan or read the case', async () => {
-    const c = await caseWithBike(saddlestep.app);
+    const c = await startedCase();
     const other = await signedInAs(saddlestep.app, 'fitter');
     await other.get(`/api/consultations/${c.consultation.id}/case`).expect(404);
     await other.get(`/api/consultations/${c.consultation.id}/plan-inputs?bikeId=${c.bikeId}`).expect(404);
@@ -93,7 +96,7 @@ describe('plan inputs and sending', () => {
 
 describe('the rider works through the plan', () => {
   it('applies step 1 with a date, records a snapshot and starts the adaptation clock', async () => {
-    const c = await caseWithBike(saddlestep.app);
+    const c = await startedCase();
     const sent = await sendPlan(c, { ...TEST_SETUP, saddleHeight: TEST_SETUP.saddleHeight + 6 });
     const planId = sent.body.plan.id as number;
     const current = await c.rider.get('/api/rider/plans/current').expect(200);
@@ -118,7 +121,7 @@ describe('the rider works through the plan', () => {
   });
 
   it('refuses dates in the future, malformed dates and other riders', async () => {
-    const c = await caseWithBike(saddlestep.app);
+    const c = await startedCase();
     const planId = (await sendPlan(c, { ...TEST_SETUP, saddleHeight: TEST_SETUP.saddleHeight + 3 })).body.plan.id;
     await c.rider.post(`/api/plans/${planId}/steps/1/apply`, { appliedOn: '2999-01-01' }).expect(400);
     await c.rider.post(`/api/plans/${planId}/steps/1/apply`, { appliedOn: '2026-02-30' }).expect(400);
@@ -128,7 +131,7 @@ describe('the rider works through the plan', () => {
   });
 
   it('goes back to an earlier setup as a revert plan', async () => {
-    const c = await caseWithBike(saddlestep.app);
+    const c = await startedCase();
     const planId = (await sendPlan(c, { ...TEST_SETUP, saddleHeight: TEST_SETUP.saddleHeight + 6 })).body.plan.id;
     await c.rider.post(`/api/plans/${planId}/steps/1/apply`, { appliedOn: today() }).expect(200);
     const baseline = await SetupSnapshot.findOne({ where: { bikeId: c.bikeId, source: 'baseline' } });
@@ -147,7 +150,7 @@ describe('the rider works through the plan', () => {
 
 describe('private notes', () => {
   it('keeps fitter notes from the rider', async () => {
-    const c = await caseWithBike(saddlestep.app);
+    const c = await startedCase();
     const secret = 'Suspect hip rocking; discuss leg length next time.';
     await c.fitter.post(`/api/consultations/${c.consultation.id}/notes`, { body: secret }).expect(201);
     expect((await c.fitter.get(`/api/consultations/${c.consultation.id}/notes`).expect(200)).body.notes[0].body).toBe(secret);
@@ -195,7 +198,7 @@ describe('photo measurements', () => {
 
 describe('follow-ups', () => {
   it('lists due check-ins for the fitter and marks them overdue exactly once with two schedulers', async () => {
-    const c = await caseWithBike(saddlestep.app);
+    const c = await startedCase();
     const planId = (await sendPlan(c, { ...TEST_SETUP, saddleHeight: TEST_SETUP.saddleHeight + 3 })).body.plan.id;
     await c.rider.post(`/api/plans/${planId}/steps/1/apply`, { appliedOn: today() }).expect(200);
     const step = (await PlanStep.findOne({ where: { planId, stepIndex: 1 } }))!;

@@ -18,7 +18,7 @@ export async function sendBuiltPlan(c: Case, target: PlanInput['target']) {
 
 /** A case with a two-step saddle plan whose first step the rider has made today. */
 export async function caseOnStepOne(app: SaddlestepApp['app']) {
-  const c = await caseWithBike(app);
+  const c = await caseWithBike(app, { started: true });
   const sent = await sendBuiltPlan(c, { ...TEST_SETUP, saddleHeight: TEST_SETUP.saddleHeight + 6 });
   if (sent.status !== 201) throw new Error(`plan not sent: ${sent.status} ${JSON.stringify(sent.body)}`);
   const planId = sent.body.plan.id as number;

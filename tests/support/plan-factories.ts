@@ -12,8 +12,9 @@ export const TEST_SETUP: Setup = {
 /**
  * A booked consultation whose rider has a submitted intake and a bike with a baseline setup
  * taken `baselineDaysAgo` days ago (riders usually record what they have ridden for a while).
+ * `started` starts the live session too, as a fitter does before sending a plan.
  */
-export async function caseWithBike(app: SaddlestepApp['app'], options: { baselineDaysAgo?: number; setup?: Setup } = {}) {
+export async function caseWithBike(app: SaddlestepApp['app'], options: { baselineDaysAgo?: number; setup?: Setup; started?: boolean } = {}) {
   const pair = await bookedPair(app);
   const intake = await pair.rider.post('/api/rider/intake/submit', calmIntake());
   if (intake.status >= 300) throw new Error(`intake failed: ${intake.status}`);
@@ -24,5 +25,9 @@ export async function caseWithBike(app: SaddlestepApp['app'], options: { baselin
     baseline: { unit: 'mm', setup: options.setup ?? TEST_SETUP, cleatNotes: '', takenOn },
   });
   if (bike.status !== 201) throw new Error(`bike create failed: ${bike.status} ${JSON.stringify(bike.body)}`);
+  if (options.started) {
+    const started = await pair.fitter.post(`/api/consultations/${pair.consultation.id}/start`);
+    if (started.status !== 200) throw new Error(`session start failed: ${started.status} ${JSON.stringify(started.body)}`);
+  }
   return { ...pair, bikeId: bike.body.bike.id as number };
 }
