@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createServer } from 'node:net';
-import { Op } from 'sequelize';
+import { Op, type WhereOptions } from 'sequelize';
 import { PlanStep, ScheduledJob } from '@server/models';
 import type { SaddlestepApp } from '@server/app';
 import { createAppScheduler } from '@server/scheduler/app-scheduler';
@@ -26,7 +26,7 @@ async function closedPort(): Promise<number> {
   return port;
 }
 
-const makeDue = (where: object) => ScheduledJob.update({ runAt: new Date(Date.now() - 1000) }, { where });
+const makeDue = (where: WhereOptions<ScheduledJob>) => ScheduledJob.update({ runAt: new Date(Date.now() - 1000) }, { where });
 
 describe('overdue check-in e-mails', () => {
   it('sends one e-mail per job, so a failing fitter e-mail is retried without mailing the rider again', async () => {
