@@ -7,6 +7,8 @@ import { loadOutbox, saveOutbox, TRANSIENT_CODES, type OutboxEntry } from '@/uti
 import { deliveryOf, mergeBySeq } from '@/utils/chat';
 import { useChatReceipts } from '@/composables/useChatReceipts';
 import { useChatTyping } from '@/composables/useChatTyping';
+import { useChatUnread } from '@/composables/useChatUnread';
+import { sessionApi } from '@/api/session';
 
 const EARLIER_PAGE = 50;
 
@@ -48,6 +50,7 @@ export const useChatStore = defineStore('chat', () => {
   const room = { consultationId, userId, joined, messages };
   const { cursors, upsertCursor, acknowledge, setThreadVisible, resetReceipts } = useChatReceipts(room);
   const { typingUntil, stopTyping, onTypingChanged, setTyping, resetTyping } = useChatTyping(room);
+  const { unread, unreadTotal, onlyUnreadConsultation, onUnreadChanged, refreshUnread, resetUnread } = useChatUnread();
 
   const maxSeq = () => messages.value[messages.value.length - 1]?.seq ?? 0;
   const minSeq = () => messages.value[0]?.seq ?? 0;
@@ -221,11 +224,20 @@ export const useChatStore = defineStore('chat', () => {
     socket.on('connect', () => {
       connected.value = true;
       connectError.value = null;
+      void refreshUnread();
       if (consultationId.value !== null) void joinRoom(consultationId.value);
     });
-    socket.on('disconnect', () => {
+    socket.on('disconnect', (reason) => {
       connected.value = false;
       joined.value = false;
+      // The server closed it (session ended elsewhere, account switched off, or a restart): socket.io
+      // will not reconnect on its own. Ask whether we are still signed in; a 401 signs the tab out.
+      if (reason === 'io server disconnect') {
+        void sessionApi.stillSignedIn().then(
+          () => userId.value !== null && socket.connect(),
+          () => (connectError.value = 'Your session has ended. Please sign in again to chat.'),
+        );
+      }
     });
     socket.on('connect_error', (error) => {
       connectError.value = error.message === 'not_signed_in' ? 'Please sign in again to chat.' : 'Chat is reconnecting…';
@@ -241,6 +253,7 @@ export const useChatStore = defineStore('chat', () => {
       if (id === consultationId.value) online.value = ids;
     });
     socket.on('typing:changed', onTypingChanged);
+    socket.on('unread:changed', onUnreadChanged);
     socket.on('consultation:changed', ({ id, status }) => {
       lastStatusChange.value = { id, status };
     });
@@ -256,6 +269,7 @@ export const useChatStore = defineStore('chat', () => {
         leave();
         socket.disconnect();
         failed.value = [];
+        resetUnread();
         userId.value = next;
         outbox.value = next === null ? [] : loadOutbox(next);
         if (next !== null) socket.connect();
@@ -269,7 +283,7 @@ export const useChatStore = defineStore('chat', () => {
 
   return {
     userId, connected, connectError, consultationId, joined, joinError, messages, pending, failedHere, cursors, others,
-    typingNames, hasEarlier, loadingEarlier, sendNotice, lastStatusChange,
+    typingNames, hasEarlier, loadingEarlier, sendNotice, lastStatusChange, unread, unreadTotal, onlyUnreadConsultation,
     stateOf, start, enter, leave, send, loadEarlier, takeBackFailed, setTyping, setThreadVisible,
   };
 });
