@@ -29,13 +29,13 @@ describe('registration and sign-in in the browser', () => {
     await page.locator('[data-test="account-link"]').click();
     await page.waitForURL('**/account');
     await page.locator('[data-test="account-name"] input, input[data-test="account-name"]').first().fill('Quinn Moved');
-    await page.locator('[data-test="time-zone"]').click();
+    await page.locator('[data-test="account-zone"]').click();
     await page.keyboard.type('Tokyo');
     await page.locator('.el-select-dropdown__item:visible', { hasText: 'Asia/Tokyo' }).first().click();
     await page.locator('[data-test="account-save"]').click();
     await page.locator('[data-test="user-name"]', { hasText: 'Quinn Moved' }).waitFor();
     await page.reload();
-    await expect(page.locator('[data-test="time-zone"]').innerText()).resolves.toMatch(/Asia\/Tokyo/);
+    await expect(page.locator('[data-test="account-zone"]').innerText()).resolves.toMatch(/Asia\/Tokyo/);
     await context.close();
   });
 
