@@ -91,7 +91,7 @@ function refusalFor(input: PlanInputParsed): PlanReason | null {
       parameters: [],
     };
   }
-  if (physio?.hold) return { code: 'physio-hold', message: 'The physiotherapist has put the plan on hold.', parameters: [] };
+  if (physio?.hold) return { code: 'physio-hold', message: 'The plan is on hold (after a warning sign or by the physiotherapist) until a physiotherapist clears it.', parameters: [] };
   if (input.redFlagLevel !== 'none' && !physio?.clearedRedFlags) {
     return {
       code: 'red-flag',
