@@ -95,6 +95,8 @@ function report(results: LoadResult[], baseline: LoadResult) {
 main().then(
   () => process.exit(0),
   (error: unknown) => {
+    // Loud on purpose: a failed or partial benchmark must never pass for a result.
+    console.error('\n*** CHAT BENCHMARK FAILED: no valid figures ***');
     console.error(error);
     process.exit(1);
   },
