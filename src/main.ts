@@ -9,10 +9,13 @@ import './styles/base.css';
 import App from './App.vue';
 import { createAppRouter } from './router';
 import { useChatStore } from './stores/chat';
+import { useCareAlertsStore } from './stores/care-alerts';
 
 const pinia = createPinia();
 const router = createAppRouter(pinia);
 // The one chat socket follows the session: open after sign-in, closed on sign-out.
 useChatStore(pinia).start();
+// Care alerts listen on the same socket: a notification with a link, and open lists refresh.
+useCareAlertsStore(pinia).start(router);
 
 createApp(App).use(pinia).use(router).mount('#app');

@@ -1,27 +1,15 @@
 import type { RequestHandler } from 'express';
 import { User } from '../models';
 import { presentUser } from '../presenters/user';
+import { riderNextAction } from '../services/rider-home';
 
 /**
- * What each role's home page starts from. The lists are real queries' results once later
- * features land; today they are honestly empty and the client shows its empty states.
+ * The rider's next step, worked out from their live data (see `services/rider-home.ts`). The
+ * fitter's and physio's home pages read their own lists (follow-ups, sessions, the referral
+ * inbox), so they need no home endpoint.
  */
-export const riderHome: RequestHandler = (req, res) => {
-  res.json({
-    greetingName: req.user!.displayName,
-    nextAction: { kind: 'tell_us_what_hurts' as const },
-    bikes: [],
-    consultations: [],
-    activePlan: null,
-  });
-};
-
-export const fitterHome: RequestHandler = (req, res) => {
-  res.json({ greetingName: req.user!.displayName, sessionsToday: [], checkInsDue: [], gettingWorse: [], referralsWaiting: [] });
-};
-
-export const physioHome: RequestHandler = (req, res) => {
-  res.json({ greetingName: req.user!.displayName, referrals: [] });
+export const riderHome: RequestHandler = async (req, res) => {
+  res.json({ greetingName: req.user!.displayName, nextAction: await riderNextAction(req.user!.id) });
 };
 
 export const adminHome: RequestHandler = async (req, res) => {

@@ -41,8 +41,6 @@ export function createApiRouter(ctx: AppContext, { auth, authRateLimit, health, 
   api.patch('/auth/me', requireSignedIn, validateBody(accountSettingsSchema), updateAccount);
 
   api.get('/rider/home', requireRole('rider'), homes.riderHome);
-  api.get('/fitter/home', requireRole('fitter'), homes.fitterHome);
-  api.get('/physio/home', requireRole('physio'), homes.physioHome);
   api.get('/admin/home', requireRole('admin'), homes.adminHome);
   api.get('/admin/accounts/pending', requireRole('admin'), adminAccounts.listPending);
   api.post('/admin/accounts/:id/decision', requireRole('admin'), validateBody(accountDecisionSchema), adminAccounts.decide);

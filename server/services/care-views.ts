@@ -45,11 +45,12 @@ export async function presentReferrals(rows: Referral[]) {
 export async function worseningAndWaiting(fitterId: number) {
   const plans = await Plan.findAll({ where: { fitterId, status: { [Op.in]: ['active', 'on_hold'] } }, attributes: ['id', 'riderId', 'consultationId'] });
   const gettingWorse = [];
+  // `urgent`: the check-in reported urgent warning signs (the plan is paused and care comes first).
   for (const plan of plans) {
     const latest = await CheckIn.findOne({ where: { planId: plan.id }, order: [['id', 'DESC']] });
     if (latest && latest.decision !== 'continue' && !latest.reviewedAt) {
       const rider = await User.findByPk(plan.riderId, { attributes: ['id', 'displayName'] });
-      gettingWorse.push({ riderId: plan.riderId, riderName: rider?.displayName ?? '', consultationId: plan.consultationId, planId: plan.id, stepIndex: latest.stepIndex, checkInDue: latest.createdAt.toISOString().slice(0, 10), state: 'getting-worse' as const, decision: latest.decision, checkInId: latest.id });
+      gettingWorse.push({ riderId: plan.riderId, riderName: rider?.displayName ?? '', consultationId: plan.consultationId, planId: plan.id, stepIndex: latest.stepIndex, checkInDue: latest.createdAt.toISOString().slice(0, 10), state: 'getting-worse' as const, decision: latest.decision, urgent: latest.analysis.referralLevel === 'urgent', checkInId: latest.id });
     }
   }
   const consultations = await Consultation.findAll({ where: { fitterId }, attributes: ['id'] });

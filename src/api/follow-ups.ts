@@ -13,6 +13,8 @@ const followUpSchema = z.object({
   state: z.string(),
   /** For riders getting worse: what their latest check-in concluded. */
   decision: z.enum(CHECK_IN_DECISIONS).optional(),
+  /** The latest check-in reported urgent warning signs: shown as urgent, above everything else. */
+  urgent: z.boolean().optional(),
   checkInId: z.number().optional(),
 });
 export type FollowUp = z.infer<typeof followUpSchema>;

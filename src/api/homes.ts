@@ -1,38 +1,23 @@
 import { z } from 'zod';
 import { http } from './http';
 
-/*
- * The lists are empty until later features fill them; items are kept as `unknown` so the home
- * pages can count them today without pretending to know their final shape.
- */
-const items = z.array(z.unknown());
+/** The kinds the server's `riderNextAction` works out, in its order of priority. */
+export const NEXT_ACTION_KINDS = ['seek_care', 'plan_on_hold', 'check_in', 'apply_step', 'join_room', 'session_booked', 'finish_paying', 'plan_under_way', 'tell_us_what_hurts', 'book'] as const;
+export type NextActionKind = (typeof NEXT_ACTION_KINDS)[number];
 
 const riderHomeSchema = z.object({
   greetingName: z.string(),
-  nextAction: z.object({ kind: z.string() }),
-  bikes: items,
-  consultations: items,
-  activePlan: z.unknown().nullable(),
+  nextAction: z.object({
+    kind: z.enum(NEXT_ACTION_KINDS),
+    consultationId: z.number().optional(),
+    planId: z.number().optional(),
+    stepIndex: z.number().optional(),
+  }),
 });
 export type RiderHome = z.infer<typeof riderHomeSchema>;
+export type NextAction = RiderHome['nextAction'];
 
-const fitterHomeSchema = z.object({
-  greetingName: z.string(),
-  sessionsToday: items,
-  checkInsDue: items,
-  gettingWorse: items,
-  referralsWaiting: items,
-});
-export type FitterHome = z.infer<typeof fitterHomeSchema>;
-
-const physioHomeSchema = z.object({
-  greetingName: z.string(),
-  referrals: items,
-});
-export type PhysioHome = z.infer<typeof physioHomeSchema>;
-
+/* Fitter and physio home pages read their own lists (follow-ups, sessions, the referral inbox). */
 export const homesApi = {
   rider: () => http.get('/api/rider/home', riderHomeSchema),
-  fitter: () => http.get('/api/fitter/home', fitterHomeSchema),
-  physio: () => http.get('/api/physio/home', physioHomeSchema),
 };
