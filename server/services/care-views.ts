@@ -1,21 +1,34 @@
 import { Op } from 'sequelize';
-import { CheckIn, Consent, Consultation, Plan, PlanStep, Referral, User } from '../models';
+import { CheckIn, Consent, Consultation, Intake, Plan, PlanStep, Referral, User } from '../models';
 import { presentCheckIn, presentReferral } from '../presenters/care';
 import { latestSubmitted } from './intakes';
 
-/** Comfort and pain over time for a rider, with a marker at each applied step (for the chart). */
+/**
+ * The intake the trend starts from: the latest one submitted before the first plan was made, so
+ * updated answers sent later do not move the starting point after the steps; else the latest.
+ */
+async function startingIntake(riderId: number, firstPlan: Plan | undefined) {
+  const before = firstPlan ? await Intake.findOne({ where: { riderId, status: 'submitted', submittedAt: { [Op.lte]: firstPlan.createdAt } }, order: [['submittedAt', 'DESC'], ['id', 'DESC']] }) : null;
+  return before ?? latestSubmitted(riderId);
+}
+
+/**
+ * Comfort and pain over time for a rider, with a marker at each applied step (for the chart).
+ * The baseline's `date` is the intake's submission instant; the client keeps it before the first
+ * step and check-in.
+ */
 export async function trendFor(riderId: number, consultationId?: number) {
   const plans = await Plan.findAll({ where: { riderId, ...(consultationId ? { consultationId } : {}) }, order: [['id', 'ASC']] });
   const planIds = plans.map((p) => p.id);
   const [checkIns, steps, intake] = await Promise.all([
     planIds.length ? CheckIn.findAll({ where: { planId: { [Op.in]: planIds } }, order: [['id', 'ASC']] }) : [],
     planIds.length ? PlanStep.findAll({ where: { planId: { [Op.in]: planIds }, state: 'applied' }, order: [['appliedOn', 'ASC']] }) : [],
-    latestSubmitted(riderId),
+    startingIntake(riderId, plans[0]),
   ]);
   const byId = new Map(plans.map((p) => [p.id, p]));
   return {
     baseline: intake
-      ? { date: (intake.submittedAt ?? intake.updatedAt).toISOString().slice(0, 10), comfort: null, pains: intake.symptoms.filter((s) => s.pain !== undefined).map((s) => ({ region: s.region, pain: s.pain! })) }
+      ? { date: (intake.submittedAt ?? intake.updatedAt).toISOString(), comfort: null, pains: intake.symptoms.filter((s) => s.pain !== undefined).map((s) => ({ region: s.region, pain: s.pain! })) }
       : null,
     checkIns: checkIns.map(presentCheckIn),
     steps: steps.map((s) => {

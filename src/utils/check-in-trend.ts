@@ -1,5 +1,6 @@
 import { BODY_REGIONS, REGION_INFO, type BodyRegion } from '@shared/fit/triage';
 import { PARAMETER_INFO, SETUP_PARAMETERS, type SetupParameter } from '@shared/fit/setup';
+import type { CheckInAnalysis } from '@shared/fit/checkin';
 import type { CheckInTrend } from '@/api/check-ins';
 
 /**
@@ -19,6 +20,10 @@ export interface TrendRow {
 export interface StepMarker {
   at: number;
   label: string;
+  /** "Step 2", when the whole label does not fit. */
+  short: string;
+  /** The day the step was made, as the rider chose it ("9 Mar"), whatever the viewer's zone. */
+  day: string;
 }
 
 /** A calendar date (YYYY-MM-DD) or an instant, as milliseconds; dates are read at noon UTC. */
@@ -26,18 +31,42 @@ export function timeOf(value: string): number {
   return /^\d{4}-\d{2}-\d{2}$/.test(value) ? Date.parse(`${value}T12:00:00Z`) : Date.parse(value);
 }
 
+/** One minute: how far before the first record after it a starting point or step marker is drawn. */
+const BEFORE = 60_000;
+
+/**
+ * Steps are stored as calendar days but check-ins at their real time, so a step is drawn at noon
+ * UTC of its day, or just before the first check-in on it (or a later step) when that came earlier
+ * (a morning check-in, a zone east of UTC). Sorted by time.
+ */
+export function stepMarkers(trend: CheckInTrend): StepMarker[] {
+  return trend.steps
+    .map((s) => {
+      const after = trend.checkIns.filter((c) => c.planId === s.planId && c.stepIndex >= s.index).map((c) => timeOf(c.createdAt));
+      const at = Math.min(timeOf(s.appliedOn), ...after.map((t) => t - BEFORE));
+      return { at, label: `Step ${s.index}: ${readableSummary(s.summary)}`, short: `Step ${s.index}`, day: shortDay(s.appliedOn) };
+    })
+    .sort((a, b) => a.at - b.at);
+}
+
+/**
+ * The starting point sits at the intake's submission time, but never after the first step or the
+ * first check-in: the plan started from it, even if the rider sent updated answers later.
+ */
 export function trendRows(trend: CheckInTrend): TrendRow[] {
+  const checkIns = [...trend.checkIns].sort((a, b) => timeOf(a.createdAt) - timeOf(b.createdAt) || a.id - b.id);
   const rows: TrendRow[] = [];
   if (trend.baseline) {
+    const later = [...stepMarkers(trend).map((m) => m.at), ...checkIns.map((c) => timeOf(c.createdAt))].map((t) => t - BEFORE);
     rows.push({
       key: 'baseline',
-      at: timeOf(trend.baseline.date),
+      at: Math.min(timeOf(trend.baseline.date), ...later),
       label: 'Starting point',
       comfort: trend.baseline.comfort,
       pains: Object.fromEntries(trend.baseline.pains.map((p) => [p.region, p.pain])),
     });
   }
-  for (const c of [...trend.checkIns].sort((a, b) => timeOf(a.createdAt) - timeOf(b.createdAt))) {
+  for (const c of checkIns) {
     rows.push({ key: `check-in-${c.id}`, at: timeOf(c.createdAt), label: `Check-in on step ${c.stepIndex}`, comfort: c.comfort, pains: Object.fromEntries(c.pains.map((p) => [p.region, p.pain])) });
   }
   return rows;
@@ -67,11 +96,6 @@ export function readableSummary(summary: string): string {
   });
 }
 
-/** "Step 2: saddle height +3 mm" at the day each step was applied. */
-export function stepMarkers(trend: CheckInTrend): StepMarker[] {
-  return trend.steps.map((s) => ({ at: timeOf(s.appliedOn), label: `Step ${s.index}: ${readableSummary(s.summary)}` }));
-}
-
 export function regionLabel(region: BodyRegion): string {
   return REGION_INFO[region].label;
 }
@@ -83,6 +107,13 @@ export function shortDate(at: number): string {
   return new Intl.DateTimeFormat(undefined, { day: 'numeric', month: 'short', ...(sameYear ? {} : { year: 'numeric' }) }).format(date);
 }
 
+/** "9 Mar" for a calendar date, read in UTC so the day is the one stored in every zone. */
+export function shortDay(isoDate: string): string {
+  const date = new Date(timeOf(isoDate));
+  const sameYear = date.getUTCFullYear() === new Date().getUTCFullYear();
+  return new Intl.DateTimeFormat(undefined, { day: 'numeric', month: 'short', timeZone: 'UTC', ...(sameYear ? {} : { year: 'numeric' }) }).format(date);
+}
+
 const REGION_PATTERN = new RegExp(`(?<![\\w-])(${[...BODY_REGIONS].sort((a, b) => b.length - a.length).join('|')})(?![\\w-])`, 'g');
 
 /** The analysis names body areas by id ("knee-front-left"); riders and fitters read "front of knee, left". */
@@ -91,4 +122,14 @@ export function readableRegions(text: string): string {
     const label = REGION_INFO[id as BodyRegion].label;
     return label.charAt(0).toLowerCase() + label.slice(1);
   });
+}
+
+/**
+ * The shared analysis words a change against the previous record as "since the last check-in",
+ * but on a plan's first check-in the previous record is the starting point. When every region
+ * was compared with the same numbers as the starting point, say so.
+ */
+export function checkInReasonText(message: string, analysis: Pick<CheckInAnalysis, 'regions'>): string {
+  const againstStart = analysis.regions.length > 0 && analysis.regions.every((r) => r.painVsPrevious.reference === r.painVsBaseline.reference);
+  return againstStart ? message.replace(/since the last check-in/g, 'since your starting point (before the plan)') : message;
 }

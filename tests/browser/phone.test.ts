@@ -1,0 +1,80 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import type { SaddlestepApp } from '@server/app';
+import { startTestApp } from '../support/app';
+import { TEST_PASSWORD } from '../support/factories';
+import { caseOnStepOne } from '../support/care-factories';
+import { launchBrowser, openPage, signIn, type BrowserSession } from '../support/browser';
+
+/*
+ * Phone layout: at 390 × 844 (a common phone) no page may be wider than the screen, so nothing
+ * is cut off or needs sideways scrolling. A rider with a plan, a referral and check-ins visits
+ * each of their pages; the fitter and physio visit their homes.
+ */
+
+const PHONE = { width: 390, height: 844 };
+
+let saddlestep: SaddlestepApp;
+let session: BrowserSession;
+beforeAll(async () => {
+  saddlestep = await startTestApp();
+  session = await launchBrowser();
+});
+afterAll(async () => {
+  await session?.close();
+  await saddlestep?.close();
+});
+
+async function phoneTab(email: string, home: string): Promise<Page> {
+  const { page } = await openPage(session.browser, { viewport: PHONE });
+  await signIn(page, email, TEST_PASSWORD);
+  await page.waitForURL(`**${home}`);
+  return page;
+}
+
+/** Open a page, wait for its content, then measure how wide the document is. */
+async function widthOf(page: Page, path: string, ready: string): Promise<number> {
+  await page.goto(path);
+  await page.locator(ready).first().waitFor();
+  // Charts and lazy sections lay out after their data; give them a moment to settle.
+  await page.waitForTimeout(400);
+  return page.evaluate(() => document.scrollingElement!.scrollWidth);
+}
+
+describe('pages at phone width (390 × 844)', () => {
+  it('are no wider than the screen for the rider, the fitter and the physio', async () => {
+    const c = await caseOnStepOne(saddlestep.app);
+    await c.rider.post(`/api/plans/${c.planId}/steps/1/check-ins`, { rides: 3, minutesRidden: 95, comfort: 5, pains: [{ region: 'knee-front-left', pain: 5 }], numbness: false, note: 'A long note from the rider about how the knee felt on the climbs and on the flat, after the change.', redFlagAnswers: {} }).expect(201);
+    const referral = await c.fitter.post(`/api/consultations/${c.consultation.id}/referrals`, { urgency: 'routine', reason: 'Pain has not settled after the change.', findings: 'Knee tracks inward at the top of the stroke.', attachmentIds: [], physioId: c.physio.user.id });
+    expect(referral.status).toBe(201);
+
+    const rider = await phoneTab(c.rider.user.email, '/rider');
+    const pages: [string, string][] = [
+      ['/rider', '[data-test="next-action"]'],
+      ['/rider/about-me', 'h1'],
+      [`/rider/bikes/${c.bikeId}`, 'h1'],
+      ['/rider/tell-us-what-hurts', '[data-test="intake-update"]'],
+      ['/book', 'h1'],
+      ['/plan', '[data-test="my-plan"] [data-test="checkin-trend"]'],
+      ['/plan/check-in', '[data-test="checkin-submit"]'],
+      [`/referrals/${referral.body.referral.id as number}/consent`, '[data-test="referral-shared"]'],
+      ['/rider/data', '[data-test="export-data"]'],
+    ];
+    const widths: Record<string, number> = {};
+    for (const [path, ready] of pages) widths[path] = await widthOf(rider, path, ready);
+    // The intake form itself (the page shows the sent answers first).
+    await rider.goto('/rider/tell-us-what-hurts');
+    await rider.locator('[data-test="intake-update"]').click();
+    await rider.locator('[data-test="intake-submit"]').waitFor();
+    await rider.waitForTimeout(400);
+    widths['intake form'] = await rider.evaluate(() => document.scrollingElement!.scrollWidth);
+
+    const fitter = await phoneTab(c.fitter.user.email, '/fitter');
+    widths['/fitter'] = await widthOf(fitter, '/fitter', '[data-test="home-fitter"] h2');
+    const physio = await phoneTab(c.physio.user.email, '/physio');
+    widths['/physio'] = await widthOf(physio, '/physio', '[data-test="home-physio"] h2');
+
+    const tooWide = Object.entries(widths).filter(([, width]) => width > PHONE.width);
+    expect(tooWide, JSON.stringify(widths)).toEqual([]);
+  });
+});
