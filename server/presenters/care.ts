@@ -13,6 +13,8 @@ export function presentCheckIn(c: CheckIn) {
     pains: c.pains,
     numbness: c.numbness,
     note: c.note,
+    // The safety answers belong with the check-in: a physio reading "urgent warning signs" must see which.
+    redFlagAnswers: c.redFlagAnswers,
     analysis: c.analysis,
     reviewedAt: c.reviewedAt?.toISOString() ?? null,
   };

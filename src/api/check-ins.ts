@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import type { CheckInFormInput } from '@shared/care';
 import { checkInAnalysisSchema, CHECK_IN_DECISIONS } from '@shared/fit/checkin';
-import { bodyRegionSchema } from '@shared/fit/triage';
+import { bodyRegionSchema, redFlagAnswersSchema } from '@shared/fit/triage';
 import { http } from './http';
 import { storedPlanSchema } from './plans';
 
@@ -19,6 +19,8 @@ export const checkInViewSchema = z.object({
   pains: z.array(painSchema),
   numbness: z.boolean(),
   note: z.string(),
+  /** The urgent safety questions asked at every check-in, as answered. */
+  redFlagAnswers: redFlagAnswersSchema.optional(),
   // Lists may leave the analysis out; the submit answer always has it.
   analysis: checkInAnalysisSchema.nullable().optional(),
   /** When the fitter marked a check-in that asked for review as looked at. */

@@ -4,12 +4,14 @@ import { buildPlan } from '@shared/fit/planner';
 import { RED_FLAG_QUESTIONS } from '@shared/fit/triage';
 import { currentConsent } from '@shared/rider';
 import type { SaddlestepApp } from '@server/app';
-import { PlanStep } from '@server/models';
+import { PlanStep, Referral } from '@server/models';
 import { startTestApp } from '../support/app';
 import { TEST_PASSWORD } from '../support/factories';
-import { caseOnStepOne, today } from '../support/care-factories';
+import { caseOnStepOne, checkInBody, today } from '../support/care-factories';
 import { TEST_SETUP } from '../support/plan-factories';
 import { launchBrowser, openPage, signIn, type BrowserSession } from '../support/browser';
+import { checkInReasonText, stepMarkers, trendRows } from '@/utils/check-in-trend';
+import type { CheckInTrend } from '@/api/check-ins';
 
 /*
  * The care loop in the browser: a rider's check-in and its advice, the fitter's alert on Today,
@@ -213,5 +215,90 @@ describe('check-ins, referrals and physio limits in the browser', () => {
     });
     expect(refused.status()).toBe(422);
     await context.close();
+  });
+
+  it("alerts the fitter's open Today page to an urgent check-in, and the physio and rider read what was reported and answered", async () => {
+    const c = await caseOnStepOne(saddlestep.app);
+    const fitter = await signedInTab(c.fitter.user.email, '/fitter');
+    await fitter.page.locator('[data-test="home-fitter"]').waitFor();
+    await expect(fitter.page.locator(`[data-test="follow-up-worse-${c.planId}"]`).count()).resolves.toBe(0);
+
+    // The rider checks in through the browser's server (the one the fitter's socket is on): leg weakness, knee 3 → 6.
+    const rider = await signedInTab(c.rider.user.email, '/rider');
+    const csrf = ((await (await rider.page.request.get('/api/auth/csrf')).json()) as { csrfToken: string }).csrfToken;
+    const body = checkInBody({ pains: [{ region: 'knee-front-left', pain: 6 }], note: 'Left leg felt weak on the stairs.', redFlagAnswers: { ...Object.fromEntries(URGENT_IDS.map((id) => [id, false])), 'leg-weakness': true } });
+    const sent = await rider.page.request.post(`/api/plans/${c.planId}/steps/1/check-ins`, { data: body, headers: { 'X-CSRF-Token': csrf } });
+    expect(sent.status()).toBe(201);
+
+    // Without a reload: a notification with a link, and the rider listed first as urgent.
+    const alert = fitter.page.locator('[data-test="care-alert"]');
+    await alert.waitFor();
+    await expect(alert.getAttribute('data-kind')).resolves.toBe('checkin-urgent');
+    const entry = fitter.page.locator(`[data-test="follow-up-worse-${c.planId}"]`);
+    await entry.waitFor();
+    await expect(entry.getAttribute('data-status')).resolves.toBe('urgent');
+    await expect(entry.innerText()).resolves.toMatch(/Urgent/);
+    await alert.locator('[data-test="care-alert-open"]').click();
+    await fitter.page.waitForURL(`**/consultations/${c.consultation.id}/room?tab=checkins`);
+    await fitter.context.close();
+
+    // The rider's next step is the urgent advice, not "ready to book".
+    await rider.page.goto('/rider');
+    await expect.poll(() => rider.page.locator('[data-test="next-action"]').getAttribute('data-kind')).toBe('seek_care');
+    await expect(rider.page.locator('[data-test="home-readiness"]').count()).resolves.toBe(0);
+
+    // The urgent referral goes to this case's physio; the rider agrees and the physio accepts.
+    const referral = await Referral.findOne({ where: { consultationId: c.consultation.id, urgency: 'urgent' } });
+    expect(referral).not.toBeNull();
+    await referral!.update({ physioId: c.physio.user.id });
+    await c.rider.post(`/api/rider/referrals/${referral!.id}/consent`, { version: currentConsent('share-with-physio')!.version, agreed: true }).expect(200);
+    await c.physio.post(`/api/physio/referrals/${referral!.id}/accept`).expect(200);
+    const physio = await signedInTab(c.physio.user.email, '/physio');
+    await physio.page.goto(`/physio/referrals/${referral!.id}`);
+    const record = physio.page.locator('[data-test="checkin-record"]').first();
+    await record.waitFor();
+    await expect(record.locator('[data-test="checkin-record-flags"]').innerText()).resolves.toContain(RED_FLAG_QUESTIONS.find((q) => q.id === 'leg-weakness')!.text);
+    await expect(record.innerText()).resolves.toContain('Left leg felt weak on the stairs.');
+    await expect(record.innerText()).resolves.toMatch(/Urgent/);
+    await physio.context.close();
+
+    // The physio's answer reaches the rider: on My fit and on the referral page.
+    await c.physio.post(`/api/physio/referrals/${referral!.id}/respond`, { note: 'Seen in clinic: nerve irritation has settled. Keep changes small.', decision: 'continue' }).expect(200);
+    await rider.page.goto('/rider');
+    const answer = rider.page.locator('[data-test="rider-physio-answer"]');
+    await answer.waitFor();
+    await expect(answer.innerText()).resolves.toContain('Keep changes small.');
+    await answer.locator('[data-test="rider-physio-answer-open"]').click();
+    await rider.page.locator('[data-test="referral-answer"]').waitFor();
+    await expect(rider.page.locator('[data-test="referral-answer"]').innerText()).resolves.toContain('nerve irritation has settled');
+    await rider.context.close();
+  });
+});
+
+describe('the check-in trend (no browser)', () => {
+  const painAt = (pain: number) => [{ region: 'knee-front-left' as const, pain }];
+  const checkIn = (id: number, createdAt: string, pain: number) => ({ id, planId: 1, stepIndex: 1, createdAt, rides: 3, minutesRidden: 90, comfort: 6, pains: painAt(pain), numbness: false, note: '' });
+
+  it('orders same-day check-ins by their time and keeps the starting point and the step before them', () => {
+    // The intake was re-sent after the step: the starting point still comes first.
+    const trend: CheckInTrend = {
+      baseline: { date: '2026-03-09T18:00:00.000Z', comfort: null, pains: painAt(3) },
+      checkIns: [checkIn(2, '2026-03-09T16:00:00.000Z', 5), checkIn(1, '2026-03-09T08:00:00.000Z', 6)],
+      steps: [{ planId: 1, index: 1, appliedOn: '2026-03-09', summary: 'saddleHeight +3' }],
+    };
+    const rows = trendRows(trend);
+    expect(rows.map((r) => r.pains['knee-front-left'])).toEqual([3, 6, 5]);
+    expect(rows.map((r) => r.at)).toEqual([...rows.map((r) => r.at)].sort((a, b) => a - b));
+    const [marker] = stepMarkers(trend);
+    expect(marker!.at).toBeGreaterThan(rows[0]!.at);
+    expect(marker!.at).toBeLessThan(rows[1]!.at);
+  });
+
+  it('words a first check-in as compared with the starting point', () => {
+    const change = { reference: 3, current: 6, delta: 3, relative: 1, category: 'much-worse' as const };
+    const regions = [{ region: 'knee-front-left' as const, painVsBaseline: change, painVsPrevious: change, comfortVsBaseline: null, comfortVsPrevious: null }];
+    expect(checkInReasonText('Much worse since the last check-in (2+ points or 30 %): knee-front-left.', { regions })).toContain('since your starting point');
+    const later = [{ ...regions[0]!, painVsPrevious: { ...change, reference: 4 } }];
+    expect(checkInReasonText('Much worse since the last check-in: knee-front-left.', { regions: later })).toContain('since the last check-in');
   });
 });
