@@ -1,7 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import { Op } from 'sequelize';
 import { badRequest, conflict } from '../errors';
-import { Bike, ChatCursor, CheckIn, Consent, Consultation, FitterNote, Intake, Message, Payment, PaymentCustomer, PhotoMeasurement, Plan, Referral, RiderProfile, Session, SetupSnapshot, Upload, User } from '../models';
+import { Bike, ChatCursor, CheckIn, Consent, Consultation, ConsultationEvent, FitterNote, Intake, Message, Payment, PaymentCustomer, PhotoMeasurement, Plan, Referral, RiderProfile, Session, SetupSnapshot, Upload, User } from '../models';
 import type { AppContext } from '../context';
 import type { PasswordHasher } from './passwords';
 import { recordAudit, type AuditActor } from './audit';
@@ -11,8 +11,10 @@ import { removeStoredFiles } from './upload-storage';
  * Erase a rider's account. Health data (intakes, consents, photos and clips, measurements,
  * check-ins, plans, setups, chat threads, fitters' notes, referrals) is deleted and the files are
  * removed from disk. What stays, for the clinic's accounts: consultations (times and fees) and
- * payments, tied to an anonymous placeholder account that can never sign in. The audit log is
- * append-only and keeps its rows, which carry ids, not health data.
+ * payments, tied to an anonymous placeholder account that can never sign in. The consultations'
+ * history keeps its moves but loses its notes (hold reasons are health text: "Urgent warning
+ * signs…", the physio's own words), and the physio flag goes. The audit log is append-only and
+ * keeps its rows, which carry only ids and action names (see `auditDetail`).
  */
 export async function deleteRiderAccount(ctx: AppContext, rider: Express.User, password: string, hasher: PasswordHasher, actor: AuditActor) {
   const user = await User.findByPk(rider.id);
@@ -34,7 +36,8 @@ export async function deleteRiderAccount(ctx: AppContext, rider: Express.User, p
       await Message.destroy({ where: inConsultations, transaction });
       await ChatCursor.destroy({ where: inConsultations, transaction });
       await FitterNote.destroy({ where: inConsultations, transaction });
-      await Consultation.update({ intakeId: null, cancelReason: null }, { where: { id: { [Op.in]: consultationIds } }, transaction });
+      await ConsultationEvent.update({ note: null }, { where: inConsultations, transaction });
+      await Consultation.update({ intakeId: null, cancelReason: null, flaggedForPhysio: false }, { where: { id: { [Op.in]: consultationIds } }, transaction });
     }
     if (uploads.length) await PhotoMeasurement.destroy({ where: { uploadId: { [Op.in]: uploads.map((u) => u.id) } }, transaction });
     await Upload.destroy({ where: { riderId }, transaction });
@@ -46,7 +49,8 @@ export async function deleteRiderAccount(ctx: AppContext, rider: Express.User, p
     await Consent.destroy({ where: { userId: riderId }, transaction });
     await RiderProfile.destroy({ where: { userId: riderId }, transaction });
     await PaymentCustomer.destroy({ where: { userId: riderId }, transaction });
-    await Payment.update({ riderId: null }, { where: { riderId }, transaction });
+    // The Stripe customer id leads back to the person's e-mail at Stripe; the charge id is enough for refunds.
+    await Payment.update({ riderId: null, stripeCustomerId: null }, { where: { riderId }, transaction });
     await Session.destroy({ where: { userId: riderId }, transaction });
     await user.update(
       { email: `deleted-${riderId}-${randomUUID().slice(0, 8)}@deleted.invalid`, displayName: 'Deleted rider', passwordHash: '!', status: 'disabled', timeZone: 'UTC', lastSignInAt: null },

@@ -27,8 +27,26 @@ export function actorFromRequest(req: Pick<Request, 'user' | 'ip' | 'headers'>):
 }
 
 /**
- * Append one audit row. Later issues call this for every read and write of health data.
- * Pass the request's transaction when the audited write happens in one, so both commit together.
+ * The only keys an audit row's `detail` may hold: ids, counts, dates and the names of actions and
+ * kinds, never health content. The audit table is append-only (an erased account's rows stay), so
+ * anything health-related written here could never be erased: a triage level, a check-in decision
+ * or a physio's decision is dropped here whatever a caller passes. Add a key only if it is not
+ * about the rider's body.
+ */
+const DETAIL_KEYS = new Set(['draftId', 'snapshotId', 'stepIndex', 'appliedOn', 'count', 'kind', 'view', 'variant', 'fields', 'source', 'version', 'amountMinor', 'cancelledBy', 'role', 'status']);
+
+/** `detail` reduced to the allowed keys with plain values; null when nothing is left. */
+export function auditDetail(detail: Record<string, unknown> | undefined): Record<string, unknown> | null {
+  if (!detail) return null;
+  const plain = (v: unknown) => v === null || ['string', 'number', 'boolean'].includes(typeof v);
+  const kept = Object.entries(detail).filter(([key, value]) => DETAIL_KEYS.has(key) && (plain(value) || (Array.isArray(value) && value.every(plain))));
+  return kept.length ? Object.fromEntries(kept) : null;
+}
+
+/**
+ * Append one audit row: who, role, what, subject, ip and user agent. `detail` keeps only the keys
+ * in DETAIL_KEYS. Pass the request's transaction when the audited write happens in one, so both
+ * commit together.
  */
 export async function recordAudit(actor: AuditActor, facts: AuditFacts, options: { transaction?: import('sequelize').Transaction } = {}) {
   await AuditEntry.create(
@@ -38,7 +56,7 @@ export async function recordAudit(actor: AuditActor, facts: AuditFacts, options:
       subjectType: facts.subjectType ?? null,
       subjectId: facts.subjectId === undefined ? null : String(facts.subjectId),
       subjectUserId: facts.subjectUserId ?? null,
-      detail: facts.detail ?? null,
+      detail: auditDetail(facts.detail),
     },
     { transaction: options.transaction },
   );

@@ -4,12 +4,15 @@ import path from 'node:path';
 import AdmZip from 'adm-zip';
 import { randomUUID } from 'node:crypto';
 import sharp from 'sharp';
-import { AuditEntry, Bike, CheckIn, Intake, Payment, Upload, User } from '@server/models';
+import { currentConsent } from '@shared/rider';
+import { AuditEntry, Bike, CheckIn, Consent, Consultation, ConsultationEvent, FitterNote, Intake, Message, Payment, Plan, Referral, Upload, User } from '@server/models';
 import type { SaddlestepApp } from '@server/app';
 import { startTestApp } from '../support/app';
 import { signedInAs, TEST_PASSWORD } from '../support/factories';
 import { buildFitter, riderReadyToBook } from '../support/booking-factories';
 import { caseOnStepOne, checkInBody } from '../support/care-factories';
+import { ask, listenOnFreePort } from '../support/sockets';
+import { socketFor } from '../support/chat-factories';
 
 let saddlestep: SaddlestepApp;
 beforeAll(async () => {
@@ -121,6 +124,24 @@ describe('rider privacy', () => {
   it('deletes the account: health data and files gone, payments kept without the person, audited', async () => {
     const c = await caseOnStepOne(saddlestep.app);
     await c.rider.post(`/api/plans/${c.planId}/steps/1/check-ins`, checkInBody()).expect(201);
+    // Health text in every place it can land: referral, physio hold and clear-hold notes (the
+    // consultation's history), a fitter's note, a chat message, an urgent check-in's hold.
+    const words = `erase-me-${randomUUID().slice(0, 8)}`;
+    const referral = await c.fitter.post(`/api/consultations/${c.consultation.id}/referrals`, { urgency: 'soon', reason: `${words} reason`, findings: `${words} findings`, attachmentIds: [], physioId: c.physio.user.id }).expect(201);
+    const referralId = referral.body.referral.id as number;
+    await c.rider.post(`/api/rider/referrals/${referralId}/consent`, { version: currentConsent('share-with-physio')!.version, agreed: true }).expect(200);
+    await c.physio.post(`/api/physio/referrals/${referralId}/accept`).expect(200);
+    await c.physio.post(`/api/physio/referrals/${referralId}/respond`, { note: `${words} response`, decision: 'hold', holdReason: `${words} hold` }).expect(200);
+    await c.physio.post(`/api/physio/referrals/${referralId}/clear-hold`, { note: `${words} cleared` }).expect(200);
+    await c.fitter.post(`/api/consultations/${c.consultation.id}/notes`, { body: `${words} note` }).expect(201);
+    await c.rider.post(`/api/plans/${c.planId}/steps/1/check-ins`, checkInBody({ note: `${words} check-in`, redFlagAnswers: { 'saddle-numbness-persists': true } })).expect(201);
+    const socket = await socketFor(await listenOnFreePort(saddlestep), c.rider);
+    await ask(socket, 'room:join', { consultationId: c.consultation.id, afterSeq: 0 });
+    expect(await ask(socket, 'message:send', { consultationId: c.consultation.id, clientId: randomUUID(), body: `${words} message` })).toMatchObject({ status: 'OK' });
+    socket.close();
+    await c.consultation.update({ flaggedForPhysio: true });
+    await Payment.create({ consultationId: c.consultation.id, riderId: c.rider.user.id, attemptKey: randomUUID(), stripeCustomerId: `cus_${words}`, stripeChargeId: `ch_${randomUUID().slice(0, 8)}`, amountMinor: 9000, currency: 'EUR', status: 'succeeded', failureMessage: null });
+    expect((await ConsultationEvent.findAll({ where: { consultationId: c.consultation.id } })).map((e) => e.note).join(' ')).toMatch(/Paused by the physiotherapist.*Urgent warning signs/);
     const png = await sharp({ create: { width: 30, height: 20, channels: 3, background: '#999' } }).png().toBuffer();
     const uploaded = await c.rider.agent.post('/api/rider/uploads').set('X-CSRF-Token', c.rider.csrfToken).field('view', 'rear').attach('file', png, 'r.png');
     const upload = (await Upload.findByPk(uploaded.body.upload.id))!;
@@ -142,5 +163,25 @@ describe('rider privacy', () => {
     expect(tombstone.email).not.toBe(c.rider.user.email);
     expect(await AuditEntry.count({ where: { action: 'account.delete', subjectUserId: riderId } })).toBe(1);
     await c.rider.get('/api/auth/me').expect(401);
+
+    const consultationId = c.consultation.id;
+    expect(await ConsultationEvent.count({ where: { consultationId } })).toBeGreaterThan(2);
+    expect((await ConsultationEvent.findAll({ where: { consultationId } })).every((e) => e.note === null)).toBe(true);
+    expect(await Consultation.findByPk(consultationId)).toMatchObject({ flaggedForPhysio: false, intakeId: null, cancelReason: null });
+    const left = [await Referral.count({ where: { riderId } }), await Plan.count({ where: { riderId } }), await Consent.count({ where: { userId: riderId } }), await Message.count({ where: { consultationId } }), await FitterNote.count({ where: { consultationId } })];
+    expect(left).toEqual([0, 0, 0, 0, 0]);
+    expect(await Payment.findOne({ where: { consultationId } })).toMatchObject({ riderId: null, stripeCustomerId: null, amountMinor: 9000 });
+    // Audit rows stay (append-only) and hold only ids and action names: no triage level or decision.
+    const audit = await AuditEntry.findAll({ where: { subjectUserId: riderId } });
+    expect(audit.length).toBeGreaterThan(5);
+    expect(audit.some((row) => row.detail && ('decision' in row.detail || 'level' in row.detail))).toBe(false);
+    // Nothing anywhere in the database still carries the rider's words, e-mail or the system's hold texts for them.
+    const [tables] = await saddlestep.sequelize.query('SHOW TABLES');
+    for (const table of (tables as Record<string, string>[]).map((row) => Object.values(row)[0]!)) {
+      const [rows] = await saddlestep.sequelize.query(`SELECT * FROM \`${table}\``);
+      const text = JSON.stringify(rows);
+      expect(text, table).not.toContain(words);
+      expect(text, table).not.toContain(c.rider.user.email);
+    }
   });
 });
