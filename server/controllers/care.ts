@@ -98,6 +98,9 @@ export function createCareController(ctx: AppContext) {
 
   const inbox: RequestHandler = async (req, res) => {
     const rows = await physioInbox(req.user!);
+    // Each listed referral shows reasons and findings: one read row per rider's referral.
+    const actor = actorFromRequest(req);
+    for (const row of rows) await recordAudit(actor, { action: 'referral.read', subjectType: 'referral', subjectId: row.id, subjectUserId: row.riderId });
     res.json({ referrals: await presentReferrals(rows) });
   };
 

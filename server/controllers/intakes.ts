@@ -3,7 +3,8 @@ import type { IntakeDraftParsed, IntakeSubmitParsed } from '@shared/rider';
 import { notFound } from '../errors';
 import { parseId } from '../middleware/validate';
 import { presentConsent, presentIntake, presentUpload } from '../presenters/intake';
-import { actorFromRequest } from '../services/audit';
+import { actorFromRequest, recordAudit } from '../services/audit';
+import { mayReadUpload } from '../services/access';
 import { listConsents, withdrawConsent } from '../services/consents';
 import { bookingReadiness } from '../services/intake-gate';
 import { discardDraft, readIntake, riderIntakes, saveDraft, submitIntake } from '../services/intakes';
@@ -46,11 +47,14 @@ export function createIntakesController(ctx: AppContext) {
 
   const show: RequestHandler = async (req, res) => {
     const { intake, consent } = await readIntake(req.user!, idParam(req.params.id, 'That intake'), actorFromRequest(req));
-    const uploads = await uploadsOfRider(intake.riderId);
+    // A referred physio sees only the files shared on their referral, as when opening a file.
+    const uploads = [];
+    for (const upload of await uploadsOfRider(intake.riderId)) if (await mayReadUpload(req.user!, upload)) uploads.push(upload);
     res.json({ intake: presentIntake(intake, consent, { forRider: req.user!.id === intake.riderId }), uploads: uploads.map(presentUpload) });
   };
 
   const consents: RequestHandler = async (req, res) => {
+    await recordAudit(actorFromRequest(req), { action: 'consent.read', subjectType: 'user', subjectId: req.user!.id, subjectUserId: req.user!.id });
     res.json({ consents: (await listConsents(req.user!.id)).map(presentConsent) });
   };
 

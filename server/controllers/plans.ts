@@ -115,7 +115,12 @@ export function createPlanController(ctx: AppContext) {
   };
 
   const followUps: RequestHandler = async (req, res) => {
-    res.json(await followUpsFor(req.user!));
+    const list = await followUpsFor(req.user!);
+    // The list shows who is getting worse and why: one read row per rider in it.
+    const riderIds = new Set([...list.due, ...list.overdue, ...list.gettingWorse, ...list.referralsWaiting].map((item) => item.riderId));
+    const actor = actorFromRequest(req);
+    for (const riderId of riderIds) await recordAudit(actor, { action: 'followup.read', subjectType: 'user', subjectId: riderId, subjectUserId: riderId });
+    res.json(list);
   };
 
   return { start, caseView, planInputs, create, listForConsultation, show, current, apply, revert, notes, createNote, measure, measurements, followUps };
