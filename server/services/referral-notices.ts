@@ -6,6 +6,7 @@ import { renderMail } from '../mail/layout';
 import { publicUrl } from '../mail/booking-mails';
 import { userRoom } from '../socket/rooms';
 
+/** Job kind for every timed referral follow-up (escalations and the consent notice); `stage` says which. */
 export const REFERRAL_ESCALATE = 'referral-escalate';
 
 /**
@@ -14,15 +15,40 @@ export const REFERRAL_ESCALATE = 'referral-escalate';
  */
 export const ESCALATE_AFTER_HOURS = { urgent: 4, soon: 48, routine: 24 * 7 } as const;
 
+/**
+ * How long an accepted referral may wait for the physio's response before the clinic is told.
+ * Our own decision (invented clinic defaults): answering needs an assessment, accepting does not,
+ * so each is several times the acceptance window. Urgent: one day, because every plan of the rider
+ * is paused and the rider was told to seek urgent care; soon: a working week; routine: two weeks.
+ */
+export const ANSWER_AFTER_HOURS = { urgent: 24, soon: 5 * 24, routine: 14 * 24 } as const;
+
+type Stage = 'unaccepted' | 'unanswered' | 'consent-notice';
+const HOUR = 3_600_000;
+
+function schedule(referral: Referral, stage: Stage, key: string, runAt: Date, transaction?: Transaction, extra: Record<string, unknown> = {}) {
+  return scheduleJob({ kind: REFERRAL_ESCALATE, uniqueKey: `${REFERRAL_ESCALATE}:${key}:${referral.id}`, runAt, payload: { referralId: referral.id, stage, ...extra } }, { transaction });
+}
+
+/** At consent: check acceptance after the urgency's window (this key predates stages, so it has none). */
 export async function scheduleReferralEscalation(referral: Referral, transaction: Transaction) {
-  const runAt = new Date(Date.now() + ESCALATE_AFTER_HOURS[referral.urgency] * 3_600_000);
+  const runAt = new Date(Date.now() + ESCALATE_AFTER_HOURS[referral.urgency] * HOUR);
   await scheduleJob({ kind: REFERRAL_ESCALATE, uniqueKey: `${REFERRAL_ESCALATE}:${referral.id}`, runAt, payload: { referralId: referral.id } }, { transaction });
+}
+
+/**
+ * A referral the system opened (urgent red flag) waits for the rider's agreement: tell the rider
+ * once. The job's unique key makes a second urgent flag on the same referral add nothing; the job
+ * re-reads the referral and stays silent if it is no longer waiting for consent.
+ */
+export function scheduleConsentNotice(referral: Referral, transaction: Transaction) {
+  return schedule(referral, 'consent-notice', 'consent-notice', new Date(), transaction);
 }
 
 type ReferralEvent = 'consent-needed' | 'sent' | 'accepted' | 'declined' | 'responded' | 'hold' | 'hold-cleared';
 
 const MESSAGES: Record<ReferralEvent, { to: ('rider' | 'fitter' | 'physio')[]; subject: string; line: string; path: (r: Referral) => string }> = {
-  'consent-needed': { to: ['rider'], subject: 'Your fitter suggests a physiotherapist', line: 'Your fitter suggests a physiotherapist looks at your case. Nothing is shared until you agree.', path: (r) => `/referrals/${r.id}/consent` },
+  'consent-needed': { to: ['rider'], subject: 'Your fitter suggests a physiotherapist', line: 'Your fitter suggests a physiotherapist looks at your case. Nothing is shared until you agree: open Saddlestep to agree to share.', path: (r) => `/referrals/${r.id}/consent` },
   sent: { to: ['physio', 'fitter'], subject: 'A new referral is waiting', line: 'A referral has been sent with the rider’s agreement.', path: (r) => `/physio/referrals/${r.id}` },
   accepted: { to: ['rider', 'fitter'], subject: 'The physiotherapist accepted the referral', line: 'The physiotherapist has accepted the referral and will be in touch through Saddlestep.', path: (r) => `/consultations/${r.consultationId}/room` },
   declined: { to: ['fitter'], subject: 'A referral was declined', line: 'The physiotherapist declined the referral. Please open the case to choose what to do next.', path: (r) => `/consultations/${r.consultationId}/room` },
@@ -45,18 +71,61 @@ export async function notifyReferral(ctx: AppContext, referral: Referral, event:
   }
 }
 
-/** The escalation job: a referral still not accepted or declined is flagged to the physio and admins. */
+/**
+ * The referral follow-up job. `unaccepted` (the first check, at the acceptance window): still sent
+ * or received → escalate, then check for an answer a full answer window later; already accepted →
+ * check for an answer at acceptance + the answer window. `unanswered`: accepted or started but not
+ * answered → escalate, unless it was accepted late and its window is still open, in which case one
+ * final check is set for the window's end. Each escalation is sent at most once per referral:
+ * every job has its own unique key and exactly one path sends.
+ */
 export async function escalateReferral(ctx: AppContext, payload: Record<string, unknown>) {
   const referral = await Referral.findByPk(Number(payload.referralId));
-  if (!referral || !['sent', 'received'].includes(referral.status)) return;
+  if (!referral) return;
+  const stage = (payload.stage ?? 'unaccepted') as Stage;
+  const answerWindow = ANSWER_AFTER_HOURS[referral.urgency] * HOUR;
+  const awaitingAnswer = ['accepted', 'in_progress'].includes(referral.status);
+  if (stage === 'consent-notice') {
+    if (referral.status === 'awaiting_consent') await notifyReferral(ctx, referral, 'consent-needed');
+  } else if (stage === 'unaccepted') {
+    if (['sent', 'received'].includes(referral.status)) {
+      await sendEscalation(ctx, referral, 'unaccepted');
+      await schedule(referral, 'unanswered', 'answer', new Date(Date.now() + answerWindow));
+    } else if (awaitingAnswer) {
+      await schedule(referral, 'unanswered', 'answer', new Date((referral.acceptedAt ?? new Date()).getTime() + answerWindow));
+    }
+  } else if (awaitingAnswer) {
+    const due = (referral.acceptedAt ?? new Date()).getTime() + answerWindow;
+    if (due > Date.now() && payload.final !== true) await schedule(referral, 'unanswered', 'answer-late', new Date(due), undefined, { final: true });
+    else await sendEscalation(ctx, referral, 'unanswered');
+  }
+}
+
+const when = (date: Date | null) => `${date?.toISOString().slice(0, 16).replace('T', ' ') ?? 'earlier'} UTC`;
+
+/**
+ * Flag an overdue referral (no health details): the physio gets their referral, the referring
+ * fitter the case's room (to chase or choose what next), and admins the people list with both
+ * names, since the clinic screen has no referral view yet.
+ */
+async function sendEscalation(ctx: AppContext, referral: Referral, kind: 'unaccepted' | 'unanswered') {
   await referral.update({ escalatedAt: new Date() });
-  const recipients = await User.findAll({ where: { [Op.or]: [{ id: referral.physioId ?? 0 }, { role: 'admin', status: 'active' }] } });
-  for (const user of recipients) {
-    const mail = renderMail({
-      subject: `Overdue ${referral.urgency} referral`,
-      paragraphs: [`Hello ${user.displayName},`, `A ${referral.urgency} referral sent ${referral.sentAt?.toISOString().slice(0, 16).replace('T', ' ')} UTC has not been accepted or declined yet.`],
-      action: { label: 'Open the referral', url: `${publicUrl(ctx)}${user.role === 'physio' ? `/physio/referrals/${referral.id}` : '/admin'}` },
-    });
+  const people = await User.findAll({ where: { [Op.or]: [{ id: [referral.physioId ?? 0, referral.fitterId] }, { role: 'admin', status: 'active' }] } });
+  const physio = people.find((u) => u.id === referral.physioId);
+  const fitter = people.find((u) => u.id === referral.fitterId);
+  const subject = kind === 'unaccepted' ? `Overdue ${referral.urgency} referral` : `Unanswered ${referral.urgency} referral`;
+  const fact = kind === 'unaccepted'
+    ? `A ${referral.urgency} referral sent ${when(referral.sentAt)} has not been accepted or declined yet.`
+    : `A ${referral.urgency} referral accepted ${when(referral.acceptedAt)} has no response from the physiotherapist yet.`;
+  for (const user of people) {
+    const base = publicUrl(ctx);
+    const link = user.id === referral.physioId
+      ? { label: 'Open the referral', url: `${base}/physio/referrals/${referral.id}` }
+      : user.id === referral.fitterId
+        ? { label: 'Open the case', url: `${base}/consultations/${referral.consultationId}/room` }
+        : { label: 'Open the people list', url: `${base}/admin?tab=people` };
+    const names = user.role === 'admin' ? [`Physiotherapist: ${physio?.displayName ?? 'not assigned'}. Referring fitter: ${fitter?.displayName ?? 'unknown'}.`] : [];
+    const mail = renderMail({ subject, paragraphs: [`Hello ${user.displayName},`, fact, ...names], action: link });
     await ctx.mailer.send({ to: user.email, ...mail });
   }
 }

@@ -8,7 +8,7 @@ import type { AppContext } from '../context';
 import { recordAudit, type AuditActor } from './audit';
 import { giveConsent } from './consents';
 import { assertReferralMove } from './referral-states';
-import { scheduleReferralEscalation, notifyReferral } from './referral-notices';
+import { scheduleConsentNotice, scheduleReferralEscalation, notifyReferral } from './referral-notices';
 import { removeFromConsultation } from '../socket/evict';
 
 /** Referrals still in play for a consultation (a new one is not opened beside them). */
@@ -60,20 +60,29 @@ export async function createReferral(ctx: AppContext, fitter: Express.User, cons
 
 /**
  * Open a referral from the system: `proposed` (the fitter confirms) after repeated worsening, or
- * `awaiting_consent` at once for an urgent red flag. No second referral while one is open.
+ * `awaiting_consent` at once for an urgent red flag. No second referral while one is open. A
+ * referral that starts waiting for the rider's agreement here gets one e-mail to the rider (a
+ * scheduled job, so it is sent after commit and exactly once).
  */
 export async function openSystemReferral(consultation: Consultation, kind: 'proposal' | 'red-flag', urgency: ReferralUrgency, reason: string, transaction: Transaction): Promise<Referral | null> {
   const open = await Referral.findOne({ where: { consultationId: consultation.id, status: { [Op.in]: [...OPEN_STATUSES] } }, transaction });
   if (open) {
     // An urgent flag raises an open referral's urgency rather than opening another.
-    if (kind === 'red-flag' && open.urgency !== 'urgent') await open.update({ urgency: 'urgent', status: open.status === 'proposed' ? 'awaiting_consent' : open.status }, { transaction });
+    if (kind === 'red-flag' && open.urgency !== 'urgent') {
+      const wasProposed = open.status === 'proposed';
+      await open.update({ urgency: 'urgent', status: wasProposed ? 'awaiting_consent' : open.status }, { transaction });
+      // A proposal was never shown to the rider; now it waits for them. (A fitter's referral already told them.)
+      if (wasProposed) await scheduleConsentNotice(open, transaction);
+    }
     return open;
   }
   const physio = await pickPhysio();
-  return Referral.create(
+  const created = await Referral.create(
     { consultationId: consultation.id, riderId: consultation.riderId, fitterId: consultation.fitterId, physioId: physio?.id ?? null, origin: kind === 'red-flag' ? 'red-flag' : 'system', urgency, status: kind === 'red-flag' ? 'awaiting_consent' : 'proposed', reason, findings: '', attachmentIds: [], consentId: null, decision: null, responseNote: null, limits: null, holdReason: null, declineNote: null, sentAt: null, receivedAt: null, acceptedAt: null, closedAt: null, escalatedAt: null },
     { transaction },
   );
+  if (created.status === 'awaiting_consent') await scheduleConsentNotice(created, transaction);
+  return created;
 }
 
 /** The fitter confirms a system proposal, adding findings and what to share. */

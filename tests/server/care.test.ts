@@ -7,7 +7,7 @@ import { createAppScheduler } from '@server/scheduler/app-scheduler';
 import { startTestApp } from '../support/app';
 import { caseOnStepOne, checkInBody, sendBuiltPlan, skipAdaptationDays, today } from '../support/care-factories';
 import { TEST_SETUP } from '../support/plan-factories';
-import { waitForMails } from '../support/mail';
+import { mailsTo, waitForMails } from '../support/mail';
 import { ask, listenOnFreePort } from '../support/sockets';
 import { socketFor } from '../support/chat-factories';
 import { signedInAs } from '../support/factories';
@@ -192,12 +192,59 @@ describe('referral to a physio', () => {
 
   it('escalates a referral nobody has accepted in time', async () => {
     const c = await caseOnStepOne(saddlestep.app);
+    const admin = await signedInAs(saddlestep.app, 'admin');
     const { id, consent } = await referredAndConsented(c);
     await consent();
     await ScheduledJob.update({ runAt: new Date(Date.now() - 1000) }, { where: { uniqueKey: `referral-escalate:${id}` } });
     await createAppScheduler(saddlestep.ctx).tick();
     expect((await Referral.findByPk(id))!.escalatedAt).not.toBeNull();
     expect(await waitForMails(c.physio.user.email, { subject: /Overdue soon referral/ })).toHaveLength(1);
+    // Each recipient gets a link they can open: the physio their referral, the fitter the room.
+    expect((await waitForMails(c.fitter.user.email, { subject: /Overdue/ }))[0]!.text).toContain(`/consultations/${c.consultation.id}/room`);
+    expect((await waitForMails(admin.user.email, { subject: /Overdue/ }))[0]!.text).toContain(c.physio.user.displayName);
+    await createAppScheduler(saddlestep.ctx).tick();
+    await new Promise((r) => setTimeout(r, 300));
+    expect((await mailsTo(c.physio.user.email)).filter((m) => /Overdue/.test(m.subject))).toHaveLength(1);
+  });
+
+  it('chases an accepted referral the physio never answers, once', async () => {
+    const c = await caseOnStepOne(saddlestep.app);
+    const { id, consent } = await referredAndConsented(c);
+    await consent();
+    await c.physio.post(`/api/physio/referrals/${id}/accept`).expect(200);
+    const tick = () => createAppScheduler(saddlestep.ctx).tick();
+    await ScheduledJob.update({ runAt: new Date(Date.now() - 1000) }, { where: { uniqueKey: `referral-escalate:${id}` } });
+    await tick(); // accepted in time: nothing sent, the answer check is set for acceptance + 5 days
+    const answerCheck = (await ScheduledJob.findOne({ where: { uniqueKey: `referral-escalate:answer:${id}` } }))!;
+    expect(answerCheck.status).toBe('pending');
+    // Five days (the "soon" answer window) pass without a response.
+    await Referral.update({ acceptedAt: new Date(Date.now() - 6 * 86_400_000) }, { where: { id } });
+    await answerCheck.update({ runAt: new Date(Date.now() - 1000) });
+    await tick();
+    expect(await waitForMails(c.physio.user.email, { subject: /Unanswered soon referral/ })).toHaveLength(1);
+    expect((await waitForMails(c.fitter.user.email, { subject: /Unanswered/ }))[0]!.text).toContain(`/consultations/${c.consultation.id}/room`);
+    expect((await Referral.findByPk(id))!.escalatedAt).not.toBeNull();
+    await tick();
+    await new Promise((r) => setTimeout(r, 300));
+    const physioMails = await mailsTo(c.physio.user.email);
+    expect(physioMails.filter((m) => /Unanswered/.test(m.subject))).toHaveLength(1);
+    expect(physioMails.filter((m) => /Overdue/.test(m.subject))).toHaveLength(0);
+  });
+
+  it('tells the rider once that an urgent referral waits for their agreement, with no health details', async () => {
+    const c = await caseOnStepOne(saddlestep.app);
+    const urgent = checkInBody({ redFlagAnswers: { 'saddle-numbness-persists': true } });
+    const first = await c.rider.post(`/api/plans/${c.planId}/steps/1/check-ins`, urgent).expect(201);
+    await c.rider.post(`/api/plans/${c.planId}/steps/1/check-ins`, urgent).expect(201);
+    const id = first.body.outcome.referralId as number;
+    await createAppScheduler(saddlestep.ctx).tick();
+    await createAppScheduler(saddlestep.ctx).tick();
+    const [mail] = await waitForMails(c.rider.user.email, { subject: /suggests a physiotherapist/ });
+    expect(mail!.text).toContain(`/referrals/${id}/consent`);
+    expect(mail!.text).toMatch(/agree to share/);
+    expect(mail!.text).not.toMatch(/urgent|warning signs|saddle numbness|knee|red flag/i);
+    await new Promise((r) => setTimeout(r, 300));
+    expect((await mailsTo(c.rider.user.email)).filter((m) => /suggests a physiotherapist/.test(m.subject))).toHaveLength(1);
   });
 
   it('refuses bad referral input and strangers', async () => {
