@@ -13,9 +13,9 @@ import { alertFitter } from './care-alerts';
 
 const URGENCY_FOR_LEVEL: Record<Exclude<ReferralLevel, 'none'>, 'routine' | 'soon' | 'urgent'> = { 'physio-routine': 'routine', 'physio-soon': 'soon', urgent: 'urgent' };
 
-/** A stored check-in in the analysis's own shape. Overall comfort is carried on each region reported. */
-function asAnalysisInput(c: { createdAt: Date; rides: number; comfort: number; pains: CheckInForm['pains'] }): AnalysisCheckIn {
-  return { date: c.createdAt.toISOString().slice(0, 10), rides: c.rides, regions: c.pains.map((p) => ({ region: p.region, pain: p.pain, comfort: c.comfort })) };
+/** A stored check-in in the analysis's own shape: pain per region, overall comfort and numbness. */
+function asAnalysisInput(c: { createdAt: Date; rides: number; comfort: number; numbness: boolean; pains: CheckInForm['pains'] }): AnalysisCheckIn {
+  return { date: c.createdAt.toISOString().slice(0, 10), rides: c.rides, comfort: c.comfort, numbness: c.numbness, regions: c.pains.map((p) => ({ region: p.region, pain: p.pain })) };
 }
 
 /** The intake, as the baseline every check-in is compared with. */
@@ -48,7 +48,7 @@ export async function submitCheckIn(ctx: AppContext, rider: Express.User, planId
   const profile = await RiderProfile.findByPk(rider.id);
   const now = new Date();
   const current: AnalysisCheckIn = {
-    ...asAnalysisInput({ createdAt: now, rides: form.rides, comfort: form.comfort, pains: form.pains }),
+    ...asAnalysisInput({ createdAt: now, rides: form.rides, comfort: form.comfort, numbness: form.numbness, pains: form.pains }),
     redFlagAnswers: form.redFlagAnswers,
     symptoms: form.pains.map((p) => ({ region: p.region, pain: p.pain, kind: form.numbness ? 'numb' : 'ache', timing: ['during-ride'], durationDays: 0, numbness: form.numbness, swelling: false, afterCrash: false })),
   };
@@ -106,16 +106,18 @@ export async function reviewCheckIn(fitter: Express.User, checkInId: number, act
 }
 
 /**
- * Whether the step after `stepIndex` may be applied: enough rides logged on this step, and its
- * latest check-in said continue (or the fitter reviewed it). Returns the reason when not.
+ * Whether the step after `stepIndex` may be applied: enough rides logged on this step, and every
+ * check-in on it that did not say continue has been reviewed by the fitter (a later "continue"
+ * does not wipe out an earlier warning nobody looked at). Returns the reason when not.
  */
 export async function nextStepBlocker(plan: Plan, stepIndex: number): Promise<string | null> {
   const step = await PlanStep.findOne({ where: { planId: plan.id, stepIndex } });
   if (!step) return null;
-  const latest = await CheckIn.findOne({ where: { planId: plan.id, stepIndex }, order: [['id', 'DESC']] });
-  if (!latest) return 'Check in on the last change first: tell us how your rides have felt.';
+  const checkIns = await CheckIn.count({ where: { planId: plan.id, stepIndex } });
+  if (checkIns === 0) return 'Check in on the last change first: tell us how your rides have felt.';
   const rides = await ridesOnStep(plan.id, stepIndex);
   if (rides < step.minRides) return `Ride at least ${step.minRides} times on the last change first (${rides} logged so far).`;
-  if (latest.decision !== 'continue' && !latest.reviewedAt) return 'Your fitter is looking at your last check-in; the next step waits for them.';
+  const unreviewed = await CheckIn.count({ where: { planId: plan.id, stepIndex, decision: { [Op.ne]: 'continue' }, reviewedAt: null } });
+  if (unreviewed > 0) return 'Your fitter is looking at your check-ins on this change; the next step waits for them.';
   return null;
 }

@@ -1,6 +1,7 @@
 import { Op, type Transaction } from 'sequelize';
 import { randomUUID } from 'node:crypto';
-import { buildPlan, validatePlan, type PlanInput, type Plan as PlanBody } from '@shared/fit/planner';
+import { buildPlan, stepBeyondPhysioLimits, validatePlan, type PlanInput, type Plan as PlanBody } from '@shared/fit/planner';
+import { REFERRAL_ADVICE } from '@shared/fit/triage';
 import { addDays } from '@shared/fit/setup';
 import type { ConsultationState } from '@shared/consultation';
 import { planSendBlocker } from '@shared/plan';
@@ -8,7 +9,8 @@ import { AppError, conflict, notFound, badRequest } from '../errors';
 import { Consultation, Plan, PlanStep, SetupSnapshot } from '../models';
 import type { AppContext } from '../context';
 import { transitionConsultation } from './consultation-states';
-import { buildPlanInputs } from './plan-inputs';
+import { buildPlanInputs, currentCondition, physioLimitsFor } from './plan-inputs';
+import { getClinicSettings } from './clinic-settings';
 import { planDifferences } from './plan-compare';
 import { latestTodayAnywhere } from '@shared/rider';
 import { recordSnapshot } from './setup-history';
@@ -108,6 +110,18 @@ export async function findVisiblePlan(user: Express.User, planId: number): Promi
 }
 
 /**
+ * The plan was built under the limits of its day; before each step is made, the rider's state
+ * now is checked again: urgent warning signs since (an intake answered after the plan) stop it,
+ * and limits a physio set since must hold for this step too. The fitter then sends a new plan.
+ */
+async function assertStepStillSafe(riderId: number, step: PlanBody['steps'][number]): Promise<void> {
+  const { level } = await currentCondition(riderId);
+  if (level === 'urgent') throw conflict(`Please do not change your bike now. ${REFERRAL_ADVICE.urgent} Once a clinician has seen you, update your answers under “Tell us what hurts”.`);
+  const beyond = stepBeyondPhysioLimits(step, await physioLimitsFor(riderId), (await getClinicSettings()).planner);
+  if (beyond.length > 0) throw conflict(`${beyond.join(' ')} Your fitter will send a new plan within these limits.`);
+}
+
+/**
  * The rider marks a step as made on a date. That starts the adaptation clock: the check-in is due
  * after the adaptation period, and the next step's earliest date moves if this one was late.
  * A new setup snapshot records what is on the bike now, so the history stays complete.
@@ -127,6 +141,7 @@ export async function applyStep(ctx: AppContext, rider: Express.User, planId: nu
       const blocker = await nextStepBlocker(plan, stepIndex - 1);
       if (blocker) throw conflict(blocker);
     }
+    await assertStepStillSafe(rider.id, step);
     if (appliedOn < row.earliestDate) throw badRequest(`This step can be made from ${row.earliestDate}, after the adaptation period.`, { appliedOn: `Choose ${row.earliestDate} or later.` });
     if (appliedOn > latestTodayAnywhere()) throw badRequest('The date cannot be in the future.', { appliedOn: 'Choose today or an earlier day.' });
 

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { analyseCheckIn, compareScores, MEANINGFUL_CHANGE, type CheckInInput } from '@shared/fit/checkin';
+import { analyseCheckIn, compareScores, LOW_COMFORT, MEANINGFUL_CHANGE, type CheckInInput } from '@shared/fit/checkin';
 import { FitInputError } from '@shared/fit/errors';
 
 const ci = (date: string, pain: number, extra: Partial<CheckInInput> = {}, comfort?: number): CheckInInput => ({
@@ -93,5 +93,32 @@ describe('analyseCheckIn', () => {
   it('refuses impossible dates and pain scores', () => {
     expect(() => analyseCheckIn({ baseline, current: ci('2025-02-30', 3) })).toThrow(FitInputError);
     expect(() => analyseCheckIn({ baseline, current: ci('2025-03-15', 4.5) })).toThrow(/whole number/);
+  });
+});
+
+describe('overall comfort and numbness, with or without a painful region', () => {
+  const calm = { date: '2025-03-01', regions: [] };
+
+  it('holds for review when comfort is low and nothing hurts (LOW_COMFORT 3/10, our decision)', () => {
+    const r = analyseCheckIn({ baseline: calm, current: { date: '2025-03-10', regions: [], comfort: 1 } });
+    expect(r.decision).toBe('hold-for-review');
+    expect(r.reasons.map((x) => x.code)).toEqual(['low-comfort']);
+    expect(analyseCheckIn({ baseline: calm, current: { date: '2025-03-10', regions: [], comfort: LOW_COMFORT + 1 } }).decision).toBe('continue');
+  });
+
+  it('holds for review when overall comfort falls by 2 points or 30 % since the last check-in (Salaffi 2004 [V], applied to comfort [D])', () => {
+    const previous = [{ date: '2025-03-08', regions: [], comfort: 8 }];
+    const r = analyseCheckIn({ baseline: calm, previous, current: { date: '2025-03-15', regions: [], comfort: 6 } });
+    expect(r.decision).toBe('hold-for-review');
+    expect(r.comfortVsPrevious).toMatchObject({ reference: 8, current: 6, category: 'much-worse' });
+    expect(analyseCheckIn({ baseline: calm, previous, current: { date: '2025-03-15', regions: [], comfort: 7 } }).decision).toBe('continue');
+  });
+
+  it('holds for review on new numbness with no region marked, not on numbness already reviewed last time (common practice)', () => {
+    const r = analyseCheckIn({ baseline: calm, current: { date: '2025-03-10', regions: [], comfort: 8, numbness: true } });
+    expect(r.decision).toBe('hold-for-review');
+    expect(r.reasons.map((x) => x.code)).toContain('new-numbness');
+    const again = analyseCheckIn({ baseline: calm, previous: [{ date: '2025-03-10', regions: [], comfort: 8, numbness: true }], current: { date: '2025-03-17', regions: [], comfort: 8, numbness: true } });
+    expect(again.decision).toBe('continue');
   });
 });

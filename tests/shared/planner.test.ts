@@ -9,6 +9,8 @@ import {
   HARD_STEP_CAP_BOUNDS,
   MAX_STEPS,
   painCapFactor,
+  physioLimitsSchema,
+  stepBeyondPhysioLimits,
   validatePlan,
   type Plan,
 } from '@shared/fit/planner';
@@ -249,5 +251,21 @@ describe('validatePlan', () => {
     first.setupAfter.saddleTilt = 1;
     first.index = 5;
     expect(codes(q, o)).toEqual(expect.arrayContaining(['unlisted-change', 'step-order']));
+  });
+});
+
+describe('a stored step against limits a physio set later', () => {
+  const policy = defaultPolicy();
+  const step = buildPlan({ baseline: BASE, target: { ...BASE, saddleHeight: BASE.saddleHeight + 3 }, policy, currentPain: 0, startDate: '2026-01-05' }).steps[0]!;
+
+  it('passes with no limits, or limits the step keeps', () => {
+    expect(stepBeyondPhysioLimits(step, undefined, policy)).toEqual([]);
+    expect(stepBeyondPhysioLimits(step, physioLimitsSchema.parse({ stepCaps: { saddleHeight: 3 } }), policy)).toEqual([]);
+  });
+
+  it('names a tighter cap, a cap factor and an excluded group the step breaks', () => {
+    expect(stepBeyondPhysioLimits(step, physioLimitsSchema.parse({ stepCaps: { saddleHeight: 1 } }), policy)).toEqual(['The saddle height moves 3 mm, more than the physiotherapist\'s limit of 1 mm per step.']);
+    expect(stepBeyondPhysioLimits(step, physioLimitsSchema.parse({ capFactor: 0.2 }), policy)[0]).toMatch(/saddle height moves 3 mm/);
+    expect(stepBeyondPhysioLimits(step, physioLimitsSchema.parse({ excludedParameters: ['saddleHeight'] }), policy)).toEqual(['The physiotherapist asked for no changes to the saddle height.']);
   });
 });

@@ -14,6 +14,13 @@ import {
 
 type Reason = CheckInAnalysis['reasons'][number];
 
+/**
+ * Overall comfort at or below this asks for the fitter's look even with no pain marked and no
+ * earlier score to compare with (our decision: a rider who rates the bike 3/10 or less is not
+ * ready for another change, whatever the trend).
+ */
+export const LOW_COMFORT = 3;
+
 function regionMap(c: CheckIn) {
   return new Map(c.regions.map((r) => [r.region, r] as const));
 }
@@ -36,7 +43,9 @@ function muchWorseVs(reference: CheckIn, current: CheckIn, region: BodyRegion): 
  *    after changes → physio, at least routine);
  * 2. suggest-revert — a region much worse than at the previous check-in (or the baseline, on the first);
  * 3. hold-for-review — a region a little worse than last time, much worse than the baseline,
- *    comfort much worse, or fewer rides than the step asks for;
+ *    comfort (a region's or overall) much worse than last time, overall comfort at LOW_COMFORT or
+ *    below, new numbness or tingling (common practice: numbness points to pressure on a nerve, which
+ *    a fitter should look at before the next change), or fewer rides than the step asks for;
  * 4. continue — everything the same or better: the next step is unlocked.
  */
 export function analyseCheckIn(input: CheckInAnalysisInput): CheckInAnalysis {
@@ -59,6 +68,10 @@ export function analyseCheckIn(input: CheckInAnalysisInput): CheckInAnalysis {
       comfortVsPrevious: r.comfort !== undefined && v?.comfort !== undefined ? compareScores(v.comfort, r.comfort, false) : null,
     };
   });
+
+  const lastComfort = [...chain].reverse().find((c) => c.comfort !== undefined)?.comfort;
+  const comfortVsPrevious = p.current.comfort !== undefined && lastComfort !== undefined ? compareScores(lastComfort, p.current.comfort, false) : null;
+  const numbnessIsNew = p.current.numbness === true && previous.numbness !== true;
 
   const flags = screenRedFlags({ answers: p.current.redFlagAnswers ?? {}, symptoms: p.current.symptoms ?? [], age: p.age });
   let referral: ReferralLevel = flags.level;
@@ -101,6 +114,12 @@ export function analyseCheckIn(input: CheckInAnalysisInput): CheckInAnalysis {
       .filter((r) => r.comfortVsPrevious?.category === 'much-worse' || r.comfortVsBaseline?.category === 'much-worse')
       .map((r) => r.region);
     if (comfort.length > 0) hold.push({ code: 'comfort-much-worse', message: `Comfort much worse: ${comfort.join(', ')}.` });
+    if (comfortVsPrevious?.category === 'much-worse') {
+      hold.push({ code: 'overall-comfort-much-worse', message: `Comfort on the bike is much worse than last time (${comfortVsPrevious.reference} → ${comfortVsPrevious.current} out of 10).` });
+    } else if (p.current.comfort !== undefined && p.current.comfort <= LOW_COMFORT) {
+      hold.push({ code: 'low-comfort', message: `Comfort on the bike is low (${p.current.comfort} out of 10): your fitter will look before the next change.` });
+    }
+    if (numbnessIsNew) hold.push({ code: 'new-numbness', message: 'Numbness or tingling on the rides: your fitter will look before the next change.' });
     if (p.minRides !== undefined && (p.current.rides ?? 0) < p.minRides) {
       hold.push({ code: 'not-enough-rides', message: `Ride at least ${p.minRides} times on this step before the next one (${p.current.rides ?? 0} so far).` });
     }
@@ -108,5 +127,5 @@ export function analyseCheckIn(input: CheckInAnalysisInput): CheckInAnalysis {
     decision = hold.length > 0 ? 'hold-for-review' : 'continue';
     if (decision === 'continue') reasons.push({ code: 'steady-or-better', message: 'The same or better everywhere: the next step is unlocked.' });
   }
-  return { decision, referralLevel: referral, reasons, regions };
+  return { decision, referralLevel: referral, reasons, regions, comfortVsPrevious };
 }

@@ -1,5 +1,5 @@
 /** Check-in analysis: trends per region and the next action. */
-export { analyseCheckIn } from './analyse';
+export { analyseCheckIn, LOW_COMFORT } from './analyse';
 export { compareScores, MEANINGFUL_CHANGE } from './compare';
 export {
   CHANGE_CATEGORIES,

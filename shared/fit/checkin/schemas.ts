@@ -17,6 +17,10 @@ export const checkInSchema = z.strictObject({
   /** Rides since the step was applied. */
   rides: z.number().int().min(0).max(1000).optional(),
   regions: z.array(checkInRegionSchema).max(60),
+  /** Overall comfort on the bike, 0–10 (10 = fully comfortable), whether or not any region hurts. */
+  comfort: z.number().int().min(0).max(10).optional(),
+  /** Any numbness or tingling on the rides, whether or not a region was marked. */
+  numbness: z.boolean().optional(),
   redFlagAnswers: redFlagAnswersSchema.optional(),
   symptoms: z.array(symptomSchema).max(60).optional(),
 });
@@ -64,5 +68,7 @@ export const checkInAnalysisSchema = z.object({
       comfortVsPrevious: changeSchema.nullable(),
     }),
   ),
+  /** Overall comfort against the last check-in that gave one (null on the first). */
+  comfortVsPrevious: changeSchema.nullable().optional(),
 });
 export type CheckInAnalysis = z.infer<typeof checkInAnalysisSchema>;

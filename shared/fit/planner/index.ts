@@ -51,3 +51,4 @@ export {
   type RiddenSetup,
 } from './schemas';
 export { validatePlan } from './validate';
+export { stepBeyondPhysioLimits } from './physio-check';

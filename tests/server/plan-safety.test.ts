@@ -5,7 +5,8 @@ import { startTestApp } from '../support/app';
 import { calmIntake } from '../support/booking-factories';
 import { signedInAs } from '../support/factories';
 import { caseWithBike } from '../support/plan-factories';
-import { caseOnStepOne, checkInBody } from '../support/care-factories';
+import { caseOnStepOne, checkInBody, skipAdaptationDays, today } from '../support/care-factories';
+import { Plan } from '@server/models';
 
 /**
  * A warning sign that is not urgent stops planning until a physiotherapist has looked at it
@@ -73,5 +74,44 @@ describe('red flags cleared by a physio’s answer', () => {
     expect((await planInputs(c)).currentPain).toBe(3);
     await c.rider.post(`/api/plans/${c.planId}/steps/1/check-ins`, checkInBody({ pains: [{ region: 'knee-front-left', pain: 1 }] })).expect(201);
     expect((await planInputs(c)).currentPain).toBe(1);
+  });
+});
+
+describe('before each step is made, the rider’s state now is checked again', () => {
+  it('holds the next step for review on low comfort with nothing marked, and until every warning check-in is reviewed', async () => {
+    const c = await caseOnStepOne(saddlestep.app);
+    const low = await c.rider.post(`/api/plans/${c.planId}/steps/1/check-ins`, checkInBody({ comfort: 1, pains: [], numbness: true })).expect(201);
+    expect(low.body.outcome.decision).toBe('hold-for-review');
+    const fine = await c.rider.post(`/api/plans/${c.planId}/steps/1/check-ins`, checkInBody({ comfort: 8, pains: [] })).expect(201);
+    expect(fine.body.outcome.decision).toBe('continue');
+    await skipAdaptationDays(c.planId, 2);
+    const blocked = await c.rider.post(`/api/plans/${c.planId}/steps/2/apply`, { appliedOn: today() }).expect(409);
+    expect(blocked.body.error.message).toMatch(/fitter is looking at your check-ins/);
+    await c.fitter.post(`/api/check-ins/${low.body.checkIn.id}/review`).expect(200);
+    await c.rider.post(`/api/plans/${c.planId}/steps/2/apply`, { appliedOn: today() }).expect(200);
+  });
+
+  it('refuses a step beyond limits a physio set after the plan was sent', async () => {
+    const c = await caseOnStepOne(saddlestep.app);
+    await c.rider.post(`/api/plans/${c.planId}/steps/1/check-ins`, checkInBody()).expect(201);
+    await skipAdaptationDays(c.planId, 2);
+    const referral = await c.fitter.post(`/api/consultations/${c.consultation.id}/referrals`, { urgency: 'routine', reason: 'Knee', attachmentIds: [], physioId: c.physio.user.id }).expect(201);
+    const id = referral.body.referral.id as number;
+    await c.rider.post(`/api/rider/referrals/${id}/consent`, { version: currentConsent('share-with-physio')!.version, agreed: true }).expect(200);
+    await c.physio.post(`/api/physio/referrals/${id}/accept`).expect(200);
+    await c.physio.post(`/api/physio/referrals/${id}/respond`, { note: 'Small moves only.', decision: 'continue_with_limits', limits: { stepCaps: { saddleHeight: 1 } } }).expect(200);
+    const refused = await c.rider.post(`/api/plans/${c.planId}/steps/2/apply`, { appliedOn: today() }).expect(409);
+    expect(refused.body.error.message).toMatch(/saddle height moves 3 mm, more than the physiotherapist's limit of 1 mm/);
+  });
+
+  it('refuses any step after an urgent intake, even once a hold is lifted', async () => {
+    const c = await caseOnStepOne(saddlestep.app);
+    await c.rider.post(`/api/plans/${c.planId}/steps/1/check-ins`, checkInBody()).expect(201);
+    await skipAdaptationDays(c.planId, 2);
+    const intake = calmIntake();
+    await c.rider.post('/api/rider/intake/submit', { ...intake, redFlagAnswers: { ...intake.redFlagAnswers, 'leg-weakness': true } }).expect(201);
+    await Plan.update({ status: 'active', holdReason: null }, { where: { id: c.planId } });
+    const refused = await c.rider.post(`/api/plans/${c.planId}/steps/2/apply`, { appliedOn: today() }).expect(409);
+    expect(refused.body.error.message).toMatch(/do not change your bike now/);
   });
 });
