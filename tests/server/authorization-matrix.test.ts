@@ -1,119 +1,165 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import sharp from 'sharp';
+import AdmZip from 'adm-zip';
 import { randomUUID } from 'node:crypto';
-import { currentConsent } from '@shared/rider';
 import type { Ack } from '@shared/http';
 import type { SaddlestepApp } from '@server/app';
-import { Consultation, Intake } from '@server/models';
+import { Consultation } from '@server/models';
 import { startTestApp } from '../support/app';
-import { signedInAs } from '../support/factories';
-import { caseOnStepOne, checkInBody } from '../support/care-factories';
 import { ask, listenOnFreePort } from '../support/sockets';
 import { socketFor } from '../support/chat-factories';
+import { buildMatrixCase, expectNoLeak, ROLE_OF, STATE_PHYSIOS, WHO, type MatrixCase, type Who } from '../support/matrix-case';
 
 /**
- * Every health-data route and socket event, for every relation a user can have to the case:
- * the owner, the assigned fitter, the referred physio (accepted, consented), an unrelated rider,
- * fitter and physio, and an admin. Each cell states the exact status, and no answer other than
- * a 2xx may carry any of the case's data.
+ * Every health-data read and socket event, for every relation a user can have to the case (see
+ * tests/support/matrix-case.ts). Each cell states the exact status, and every answer, 2xx or
+ * not, is checked for anything that user may not see. Writes are in authorization-matrix-writes.
  */
-type Who = 'owner' | 'assigned' | 'referred' | 'riderX' | 'fitterX' | 'physioX' | 'admin';
-const WHO: Who[] = ['owner', 'assigned', 'referred', 'riderX', 'fitterX', 'physioX', 'admin'];
-const MARKER = `marker-${randomUUID().slice(0, 8)}`;
-
 let saddlestep: SaddlestepApp;
 let baseUrl: string;
-const clients = {} as Record<Who, Awaited<ReturnType<typeof signedInAs>>>;
-const ids = { consultation: 0, plan: 0, intake: 0, sharedUpload: 0, privateUpload: 0, referral: 0, checkIn: 0 };
+let m: MatrixCase;
 
 beforeAll(async () => {
   saddlestep = await startTestApp();
   baseUrl = await listenOnFreePort(saddlestep);
-  const c = await caseOnStepOne(saddlestep.app);
-  Object.assign(clients, { owner: c.rider, assigned: c.fitter, referred: c.physio });
-  clients.riderX = await signedInAs(saddlestep.app, 'rider');
-  clients.fitterX = await signedInAs(saddlestep.app, 'fitter');
-  clients.physioX = await signedInAs(saddlestep.app, 'physio');
-  clients.admin = await signedInAs(saddlestep.app, 'admin');
-  ids.consultation = c.consultation.id;
-  ids.plan = c.planId;
-  const intake = (await Intake.findOne({ where: { riderId: c.rider.user.id, status: 'submitted' } }))!;
-  await intake.update({ goalNotes: MARKER });
-  ids.intake = intake.id;
-  const png = await sharp({ create: { width: 20, height: 20, channels: 3, background: '#123' } }).png().toBuffer();
-  for (const key of ['sharedUpload', 'privateUpload'] as const) {
-    const res = await c.rider.agent.post('/api/rider/uploads').set('X-CSRF-Token', c.rider.csrfToken).field('view', 'front').attach('file', png, 'p.png');
-    ids[key] = res.body.upload.id;
-  }
-  ids.checkIn = (await c.rider.post(`/api/plans/${c.planId}/steps/1/check-ins`, checkInBody({ note: MARKER })).expect(201)).body.checkIn.id;
-  await c.fitter.post(`/api/consultations/${c.consultation.id}/notes`, { body: MARKER }).expect(201);
-  const referral = await c.fitter.post(`/api/consultations/${c.consultation.id}/referrals`, { urgency: 'routine', reason: MARKER, attachmentIds: [ids.sharedUpload], physioId: c.physio.user.id }).expect(201);
-  ids.referral = referral.body.referral.id;
-  await c.rider.post(`/api/rider/referrals/${ids.referral}/consent`, { version: currentConsent('share-with-physio')!.version, agreed: true }).expect(200);
-  await c.physio.post(`/api/physio/referrals/${ids.referral}/accept`).expect(200);
+  m = await buildMatrixCase(saddlestep.app);
 });
 afterAll(async () => {
   await saddlestep.close();
 });
 
-const routes: { path: () => string; expect: Record<Who, number> }[] = [
-  { path: () => `/api/intakes/${ids.intake}`, expect: { owner: 200, assigned: 200, referred: 200, riderX: 404, fitterX: 404, physioX: 404, admin: 403 } },
-  { path: () => `/api/uploads/${ids.sharedUpload}/file`, expect: { owner: 200, assigned: 200, referred: 200, riderX: 404, fitterX: 404, physioX: 404, admin: 403 } },
-  { path: () => `/api/uploads/${ids.privateUpload}/thumbnail`, expect: { owner: 200, assigned: 200, referred: 404, riderX: 404, fitterX: 404, physioX: 404, admin: 403 } },
-  { path: () => `/api/consultations/${ids.consultation}`, expect: { owner: 200, assigned: 200, referred: 200, riderX: 404, fitterX: 404, physioX: 404, admin: 403 } },
-  { path: () => `/api/consultations/${ids.consultation}/case`, expect: { owner: 403, assigned: 200, referred: 403, riderX: 403, fitterX: 404, physioX: 403, admin: 403 } },
-  { path: () => `/api/consultations/${ids.consultation}/notes`, expect: { owner: 403, assigned: 200, referred: 403, riderX: 403, fitterX: 404, physioX: 403, admin: 403 } },
-  { path: () => `/api/consultations/${ids.consultation}/check-ins`, expect: { owner: 403, assigned: 200, referred: 200, riderX: 403, fitterX: 404, physioX: 404, admin: 403 } },
-  { path: () => `/api/consultations/${ids.consultation}/plans`, expect: { owner: 200, assigned: 200, referred: 403, riderX: 404, fitterX: 404, physioX: 403, admin: 403 } },
-  { path: () => `/api/consultations/${ids.consultation}/referrals`, expect: { owner: 200, assigned: 200, referred: 403, riderX: 404, fitterX: 404, physioX: 403, admin: 403 } },
-  { path: () => `/api/plans/${ids.plan}`, expect: { owner: 200, assigned: 200, referred: 403, riderX: 404, fitterX: 404, physioX: 403, admin: 403 } },
-  { path: () => `/api/physio/referrals/${ids.referral}/case`, expect: { owner: 403, assigned: 403, referred: 200, riderX: 403, fitterX: 403, physioX: 404, admin: 403 } },
-  { path: () => `/api/uploads/${ids.sharedUpload}/measurements?consultationId=${ids.consultation}`, expect: { owner: 403, assigned: 200, referred: 403, riderX: 403, fitterX: 404, physioX: 403, admin: 403 } },
+/** Binary answers (files, the export zip) are kept as bytes; JSON is parsed as usual. */
+const raw = (response: import('superagent').Response, done: (err: Error | null, body: unknown) => void) => {
+  const chunks: Buffer[] = [];
+  response.on('data', (chunk: Buffer) => chunks.push(chunk));
+  response.on('end', () => done(null, Buffer.concat(chunks)));
+};
+async function read(who: Who, path: string) {
+  const res = await m.clients[who].agent.get(path).buffer(true).parse(raw);
+  const bytes = res.body as Buffer;
+  const text = bytes.toString('utf8');
+  return { status: res.status, bytes, text, json: () => JSON.parse(text) as unknown };
+}
+
+type Cells = Record<Who, number>;
+/** owner, assigned, referred, riderX, fitterX, physioX, admin; physios in the other referral states answer like physioX. */
+function cells(owner: number, assigned: number, referred: number, riderX: number, fitterX: number, physioX: number, admin: number): Cells {
+  return { owner, assigned, referred, riderX, fitterX, physioX, admin, awaiting: physioX, withdrawn: physioX, declined: physioX };
+}
+/** The case's ids; before the case exists (while tests are being named) each id reads `:id`. */
+const ids = () => m?.ids ?? new Proxy({} as MatrixCase['ids'], { get: (_, key) => (key === 'own' ? {} : ':id') });
+const routes: { path: (who: Who) => string; expect: Cells }[] = [
+  { path: () => `/api/intakes/${ids().intake}`, expect: cells(200, 200, 200, 404, 404, 404, 403) },
+  { path: () => `/api/uploads/${ids().sharedUpload}/file`, expect: cells(200, 200, 200, 404, 404, 404, 403) },
+  { path: () => `/api/uploads/${ids().privateUpload}/thumbnail`, expect: cells(200, 200, 404, 404, 404, 404, 403) },
+  { path: () => `/api/consultations/${ids().consultation}`, expect: cells(200, 200, 200, 404, 404, 404, 403) },
+  { path: () => `/api/consultations/${ids().consultation}/case`, expect: cells(403, 200, 403, 403, 404, 403, 403) },
+  { path: () => `/api/consultations/${ids().consultation}/plan-inputs?bikeId=${ids().bike}`, expect: cells(403, 200, 403, 403, 404, 403, 403) },
+  { path: () => `/api/consultations/${ids().consultation}/notes`, expect: cells(403, 200, 403, 403, 404, 403, 403) },
+  { path: () => `/api/consultations/${ids().consultation}/check-ins`, expect: cells(403, 200, 200, 403, 404, 404, 403) },
+  { path: () => `/api/consultations/${ids().consultation}/plans`, expect: cells(200, 200, 403, 404, 404, 403, 403) },
+  { path: () => `/api/consultations/${ids().consultation}/referrals`, expect: cells(200, 200, 403, 404, 404, 403, 403) },
+  { path: () => `/api/plans/${ids().plan}`, expect: cells(200, 200, 403, 404, 404, 403, 403) },
+  { path: () => `/api/physio/referrals/${ids().referral}/case`, expect: cells(403, 403, 200, 403, 403, 404, 403) },
+  // Each physio asks for their own referral's case: withdrawn consent or no consent yet hides it; declined cannot open it.
+  { path: (who) => `/api/physio/referrals/${ids().own[who] ?? ids().referral}/case`, expect: { ...cells(403, 403, 200, 403, 403, 404, 403), awaiting: 404, withdrawn: 404, declined: 409 } },
+  { path: () => `/api/uploads/${ids().sharedUpload}/measurements?consultationId=${ids().consultation}`, expect: cells(403, 200, 403, 403, 404, 403, 403) },
 ];
 
 describe('health-data routes, by relation to the case', () => {
   for (const route of routes) {
     for (const who of WHO) {
-      it(`${route.path().replace(/\d+/g, ':id')} as ${who} → ${route.expect[who]}`, async () => {
-        const res = await clients[who].get(route.path());
+      it(`${route.path('owner')} as ${who} → ${route.expect[who]}`, async () => {
+        const res = await read(who, route.path(who));
         expect(res.status).toBe(route.expect[who]);
-        if (res.status >= 300) {
-          expect(JSON.stringify(res.body)).not.toContain(MARKER);
-          expect(JSON.stringify(res.body)).not.toMatch(/knee|symptom|SqlError|sequelize/i);
-        }
+        expectNoLeak(m, who, res.text);
+        if (res.status >= 300) expect(res.text).not.toMatch(/knee|symptom|SqlError|sequelize/i);
       });
     }
   }
 
+  it('lists to a referred physio only the photos shared on the referral', async () => {
+    const body = (await read('referred', `/api/intakes/${ids().intake}`)).json() as { uploads: { id: number }[] };
+    expect(body.uploads.map((u) => u.id)).toEqual([ids().sharedUpload]);
+    const fitters = (await read('assigned', `/api/intakes/${ids().intake}`)).json() as { uploads: { id: number }[] };
+    expect(fitters.uploads.map((u) => u.id).sort()).toEqual([ids().sharedUpload, ids().privateUpload].sort());
+  });
+
   it('the owner’s own-data routes answer only with the owner’s data', async () => {
     for (const path of ['/api/rider/intake', '/api/rider/check-ins', '/api/rider/plans/current', '/api/rider/referrals']) {
-      expect(JSON.stringify((await clients.riderX.get(path).expect(200)).body)).not.toContain(MARKER);
-      await clients.assigned.get(path).expect(403);
+      expect(JSON.stringify((await m.clients.riderX.get(path).expect(200)).body)).not.toContain(m.marker);
+      await m.clients.assigned.get(path).expect(403);
+    }
+  });
+});
+
+/**
+ * Routes that answer with the caller's own data: 200 for their role, 403 for every other role.
+ * `shows` names who must find the case's data there (proving the leak check looks at real data).
+ */
+const ownData: { path: string; roles: string[]; shows?: Who[] }[] = [
+  ...['/api/rider/home', '/api/rider/profile', '/api/rider/bikes', '/api/rider/booking-readiness', '/api/rider/uploads', '/api/rider/check-ins', '/api/rider/plans/current'].map((path) => ({ path, roles: ['rider'] })),
+  { path: '/api/rider/intake', roles: ['rider'], shows: ['owner'] },
+  { path: '/api/rider/consents', roles: ['rider'] },
+  { path: '/api/rider/referrals', roles: ['rider'], shows: ['owner'] },
+  { path: '/api/consultations', roles: ['rider', 'fitter'] },
+  { path: '/api/fitter/follow-ups', roles: ['fitter'] },
+  { path: '/api/fitter/settings', roles: ['fitter'] },
+  { path: '/api/physio/referrals', roles: ['physio'], shows: ['referred'] },
+  ...['/api/admin/home', '/api/admin/users', '/api/admin/accounts/pending', '/api/admin/payments', '/api/admin/settings', '/api/admin/audit?limit=200'].map((path) => ({ path, roles: ['admin'] })),
+  { path: '/api/auth/me', roles: ['rider', 'fitter', 'physio', 'admin'] },
+];
+
+describe('own-data routes, for every role', () => {
+  for (const route of ownData) {
+    it(`${route.path} answers each role with its own data only`, async () => {
+      for (const who of WHO) {
+        const res = await read(who, route.path);
+        expect(res.status, `${route.path} as ${who}`).toBe(route.roles.includes(ROLE_OF[who]) ? 200 : 403);
+        expectNoLeak(m, who, res.text);
+        if (route.shows?.includes(who)) expect(res.text).toContain(m.marker);
+      }
+    });
+  }
+
+  it('exports only the caller’s own data, and only to riders', async () => {
+    for (const who of WHO) {
+      const res = await read(who, '/api/rider/export');
+      expect(res.status, who).toBe(ROLE_OF[who] === 'rider' ? 200 : 403);
+      if (res.status !== 200) continue;
+      const data = new AdmZip(res.bytes).readAsText('data.json');
+      expectNoLeak(m, who, data);
+      if (who === 'owner') expect(data).toContain(m.marker);
     }
   });
 });
 
 describe('socket events, by relation to the case', () => {
-  const allowed: Record<Who, boolean> = { owner: true, assigned: true, referred: true, riderX: false, fitterX: false, physioX: false, admin: false };
+  const allowed = (who: Who) => ['owner', 'assigned', 'referred'].includes(who);
   for (const who of WHO) {
-    it(`${who} ${allowed[who] ? 'may' : 'may not'} join, read or write the thread`, async () => {
-      const socket = await socketFor(baseUrl, clients[who]);
+    it(`${who} ${allowed(who) ? 'may' : 'may not'} join, read, write or type in the thread`, async () => {
+      const socket = await socketFor(baseUrl, m.clients[who]);
+      const heard: string[] = [];
+      socket.onAny((event: string, payload: unknown) => heard.push(`${event} ${JSON.stringify(payload)}`));
       try {
-        const consultationId = ids.consultation;
+        const consultationId = ids().consultation;
         const results = [
           await ask<Ack<unknown>>(socket, 'room:join', { consultationId, afterSeq: 0 }),
           await ask<Ack<unknown>>(socket, 'message:history', { consultationId, beforeSeq: 1000, limit: 10 }),
           await ask<Ack<unknown>>(socket, 'message:send', { consultationId, clientId: randomUUID(), body: `hello from ${who}` }),
           await ask<Ack<unknown>>(socket, 'message:delivered', { consultationId, seq: 1 }),
           await ask<Ack<unknown>>(socket, 'message:read', { consultationId, seq: 1 }),
+          await ask<Ack<unknown>>(socket, 'typing:set', { consultationId, typing: true }),
         ];
         for (const ack of results) {
-          expect(ack.status).toBe(allowed[who] ? 'OK' : 'ERROR');
-          if (ack.status === 'ERROR') {
-            expect(ack.errors.code).toBe('not_found');
-            expect(JSON.stringify(ack)).not.toContain(MARKER);
-          }
+          expect(ack.status).toBe(allowed(who) ? 'OK' : 'ERROR');
+          if (ack.status === 'ERROR') expect(ack.errors.code).toBe('not_found');
+          expectNoLeak(m, who, ack);
         }
+        // Leaving a room one is not in changes nothing and says nothing, so it is OK for everyone.
+        expect(await ask<Ack<unknown>>(socket, 'room:leave', { consultationId })).toEqual({ status: 'OK', data: null });
+        await new Promise((r) => setTimeout(r, 100));
+        if (!allowed(who)) expect(heard.filter((h) => h.includes(`"consultationId":${consultationId}`))).toEqual([]);
+        expectNoLeak(m, who, heard.join('\n'));
       } finally {
         socket.close();
       }
@@ -124,8 +170,8 @@ describe('socket events, by relation to the case', () => {
 describe('a referral opens only the consultation it was made on', () => {
   it('the referred physio cannot join or read the same rider’s consultation with another fitter', async () => {
     const other = await Consultation.create({
-      riderId: clients.owner.user.id,
-      fitterId: clients.fitterX.user.id,
+      riderId: m.clients.owner.user.id,
+      fitterId: m.clients.fitterX.user.id,
       intakeId: null,
       status: 'booked',
       startsAt: new Date(Date.now() + 5 * 86_400_000),
@@ -137,12 +183,13 @@ describe('a referral opens only the consultation it was made on', () => {
       cancelledById: null,
       cancelReason: null,
     });
-    await clients.referred.get(`/api/consultations/${other.id}`).expect(404);
-    const socket = await socketFor(baseUrl, clients.referred);
+    await m.clients.referred.get(`/api/consultations/${other.id}`).expect(404);
+    for (const who of STATE_PHYSIOS) await m.clients[who].get(`/api/consultations/${other.id}`).expect(404);
+    const socket = await socketFor(baseUrl, m.clients.referred);
     try {
       const ack = await ask<Ack<unknown>>(socket, 'room:join', { consultationId: other.id, afterSeq: 0 });
       expect(ack.status).toBe('ERROR');
-      const own = await ask<Ack<unknown>>(socket, 'room:join', { consultationId: ids.consultation, afterSeq: 0 });
+      const own = await ask<Ack<unknown>>(socket, 'room:join', { consultationId: ids().consultation, afterSeq: 0 });
       expect(own.status).toBe('OK');
     } finally {
       socket.close();
