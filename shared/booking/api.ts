@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { availabilitySchema, fitterProfileSchema, localDateSchema } from './availability';
+import { adminRefundSchema } from '../admin';
 
 const instant = z.iso.datetime({ offset: true, error: 'Send the time as an ISO date-time, like 2027-03-09T08:00:00Z.' }).transform((s) => new Date(s));
 
@@ -31,3 +32,15 @@ export const TEST_CARDS = [
   { token: 'tok_mastercard', label: 'Mastercard that pays' },
   { token: 'tok_chargeDeclined', label: 'Card that is declined' },
 ] as const;
+
+/**
+ * An admin's refund. `idempotencyKey` is the client's UUID for this attempt (made when Refund is
+ * first pressed, kept for retries): the same key always means the same single refund. Optional so
+ * older clients still work, but then only the payment lock guards against a double refund.
+ */
+export const adminRefundRequestSchema = adminRefundSchema.extend({
+  idempotencyKey: z.uuid({ error: 'The refund attempt id is not valid; reload the page.' }).optional(),
+});
+
+/** POST /api/consultations/:id/no-show carries nothing: who and when come from the session and the clock. */
+export const noShowSchema = z.strictObject({});

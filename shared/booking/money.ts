@@ -33,3 +33,37 @@ export function formatMoney(minor: number, currency: string, locale?: string): s
     fromMinorUnits(minor, currency),
   );
 }
+
+/**
+ * The smallest amount Stripe will charge in each currency, in minor units. From memory of Stripe's
+ * "Minimum and maximum charge amounts" table (stripe.com/docs/currencies), not re-checked here:
+ * 0.50 for USD, EUR, CHF, AUD, CAD and NZD, £0.30, 2.50 kr DKK, 3.00 kr NOK and SEK, ¥50.
+ * KRW is not in that table as we remember it; ₩1,000 is our own safe choice (above the ~US$0.50
+ * equivalent Stripe asks for elsewhere). A lower fee would be refused by Stripe at payment time.
+ */
+export const MIN_CHARGE_MINOR: Readonly<Record<Currency, number>> = {
+  EUR: 50,
+  GBP: 30,
+  USD: 50,
+  CHF: 50,
+  SEK: 300,
+  NOK: 300,
+  DKK: 250,
+  AUD: 50,
+  CAD: 50,
+  NZD: 50,
+  JPY: 50,
+  KRW: 1000,
+};
+
+/** The smallest chargeable fee for a currency (minor units); unknown currencies get the common 50. */
+export function minimumChargeMinor(currency: string): number {
+  return MIN_CHARGE_MINOR[currency.toUpperCase() as Currency] ?? 50;
+}
+
+/** Null when `minor` can be charged, else a sentence for the fee field. */
+export function feeBelowMinimum(minor: number, currency: string): string | null {
+  const minimum = minimumChargeMinor(currency);
+  if (minor >= minimum) return null;
+  return `The fee must be at least ${formatMoney(minimum, currency, 'en-GB')}: card payments in ${currency.toUpperCase()} cannot be smaller.`;
+}

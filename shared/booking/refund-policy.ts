@@ -3,7 +3,8 @@ import { z } from 'zod';
 /**
  * The clinic's cancellation rules. The defaults are invented for the demo studio (common practice
  * in appointment businesses, no published source): full refund up to 24 h before the start, half
- * after that, and a full refund whenever the fitter or clinic cancels.
+ * after that, none for a missed session (no-show), and a full refund whenever the fitter or clinic
+ * cancels.
  */
 export const cancellationPolicySchema = z.strictObject({
   /** Hours before the start up to which a rider gets the early share back and may reschedule. */
@@ -15,6 +16,12 @@ export const cancellationPolicySchema = z.strictObject({
 });
 export type CancellationPolicy = z.infer<typeof cancellationPolicySchema>;
 export const DEFAULT_CANCELLATION_POLICY: CancellationPolicy = cancellationPolicySchema.parse({});
+
+/**
+ * Share refunded when the fitter records that the rider did not come. Our invented rule, not a
+ * clinic setting yet: nothing, as for a cancellation after the start (the fitter kept the time free).
+ */
+export const NO_SHOW_REFUND_SHARE = 0;
 
 export type CancelledBy = 'rider' | 'fitter' | 'admin';
 
@@ -50,4 +57,29 @@ export function decideRefund(input: { paidMinor: number; startsAt: Date; now: Da
     ? `Cancelled more than ${policy.windowHours} h before the start: ${percent} % is refunded.`
     : `Cancelled less than ${policy.windowHours} h before the start: ${percent} % is refunded.`;
   return { amountMinor, share, reason, mayReschedule };
+}
+
+const percentOf = (share: number) => `${Math.round(share * 100)} %`;
+
+/**
+ * The policy in plain sentences, for the checkout page before paying and the policy form. The
+ * same numbers `decideRefund` applies, so what the rider reads is what happens.
+ */
+export function describeRefundPolicy(policy: CancellationPolicy): string[] {
+  const early = policy.earlyRefundShare === 1 ? 'the full fee' : percentOf(policy.earlyRefundShare);
+  const late = policy.lateRefundShare === 0 ? 'nothing' : percentOf(policy.lateRefundShare);
+  return [
+    `Cancel ${policy.windowHours} h or more before the start: ${early} back. You can also move the session until then.`,
+    `Cancel less than ${policy.windowHours} h before the start: ${late} back.`,
+    'Cancel after the start time: nothing back.',
+    `Miss the session without cancelling (your fitter records a no-show): ${NO_SHOW_REFUND_SHARE === 0 ? 'no refund' : `${percentOf(NO_SHOW_REFUND_SHARE)} back`}.`,
+    'If your fitter or the studio cancels, you get the full fee back.',
+  ];
+}
+
+/** What goes back when the fitter records a no-show (rounded down, like every share). */
+export function noShowRefund(paidMinor: number): RefundDecision {
+  const amountMinor = Math.floor(paidMinor * NO_SHOW_REFUND_SHARE);
+  const reason = amountMinor > 0 ? `Missed session: ${percentOf(NO_SHOW_REFUND_SHARE)} is refunded under the studio's rules.` : "Missed session: no refund is due under the studio's rules.";
+  return { amountMinor, share: NO_SHOW_REFUND_SHARE, reason, mayReschedule: false };
 }

@@ -88,12 +88,41 @@ export function availableSlots(query: SlotQuery): Slot[] {
   return slots;
 }
 
-/** True when `start` is exactly one of the slots offered on its local date (re-checked on every write). */
+/**
+ * The last local date (fitter's zone) on which slots are offered: today plus `horizonDays`, the
+ * same rule the slot listing uses.
+ */
+export function horizonLastDate(availability: Availability, timeZone: string, now: Date): string {
+  return DateTime.fromJSDate(now, { zone: timeZone }).plus({ days: availability.horizonDays }).toISODate()!;
+}
+
+/**
+ * True when `start` is exactly one of the slots offered on its local date, within the booking
+ * horizon (re-checked on every write).
+ */
 export function isOfferedSlot(query: Omit<SlotQuery, 'fromDate' | 'toDate'>, start: Date): boolean {
   const local = DateTime.fromJSDate(start, { zone: query.timeZone });
   const day = local.toISODate();
   if (!day) return false;
+  if (day > horizonLastDate(query.availability, query.timeZone, query.now)) return false;
   // A slot may belong to the previous local day when a window runs past midnight.
   const from = local.minus({ days: 1 }).toISODate()!;
   return availableSlots({ ...query, fromDate: from, toDate: day }).some((slot) => slot.start === start.toISOString());
+}
+
+export type SlotRefusal = 'past' | 'notice' | 'beyond-horizon' | 'not-offered' | 'taken';
+
+/**
+ * Why `start` cannot be booked, or null when it can. Distinguishes a time that was never offered
+ * (off the grid, outside the hours, past the horizon or inside the notice) from one that was
+ * offered but is now taken, so the rider gets the right explanation.
+ */
+export function slotRefusal(query: Omit<SlotQuery, 'fromDate' | 'toDate'>, start: Date): SlotRefusal | null {
+  if (start.getTime() <= query.now.getTime()) return 'past';
+  const day = DateTime.fromJSDate(start, { zone: query.timeZone }).toISODate();
+  if (!day || day > horizonLastDate(query.availability, query.timeZone, query.now)) return 'beyond-horizon';
+  if (!isOfferedSlot({ ...query, busy: [] }, start)) {
+    return start.getTime() < query.now.getTime() + query.availability.minNoticeHours * 3_600_000 ? 'notice' : 'not-offered';
+  }
+  return isOfferedSlot(query, start) ? null : 'taken';
 }

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { cancellationPolicySchema } from '../booking/refund-policy';
-import { CURRENCIES } from '../booking/money';
+import { CURRENCIES, feeBelowMinimum } from '../booking/money';
 import { policySchema } from '../fit/planner/schemas';
 
 /**
@@ -17,7 +17,12 @@ export const clinicSettingsSchema = z.strictObject({
   /** Minutes a slot stays held while the rider pays (common practice for ticketing/booking, 5–15). */
   holdMinutes: z.number({ error: 'Enter the hold time in minutes.' }).int('Use whole minutes.').min(2, 'Hold a slot for at least 2 minutes.').max(30, 'Hold a slot for at most 30 minutes.').default(10),
   planner: policySchema.default(() => policySchema.parse({})),
-});
+})
+  // Stripe refuses charges below a per-currency minimum; a default fee under it could never be paid.
+  .superRefine((settings, context) => {
+    const problem = feeBelowMinimum(settings.defaultFeeMinor, settings.currency);
+    if (problem) context.addIssue({ code: 'custom', path: ['defaultFeeMinor'], message: problem });
+  });
 export type ClinicSettings = z.infer<typeof clinicSettingsSchema>;
 export type ClinicSettingsInput = z.input<typeof clinicSettingsSchema>;
 export const DEFAULT_CLINIC_SETTINGS: ClinicSettings = clinicSettingsSchema.parse({});
