@@ -1,18 +1,17 @@
 import type { RequestHandler } from 'express';
 import type { z } from 'zod';
-import { adminRefundSchema, auditQuerySchema, userQuerySchema, type updateUserSchema } from '@shared/admin';
+import { auditQuerySchema, userQuerySchema, type updateUserSchema } from '@shared/admin';
+import { adminRefundRequestSchema } from '@shared/booking';
 import { clinicSettingsSchema } from '@shared/clinic';
-import { conflict, notFound } from '../errors';
+import { notFound } from '../errors';
 import { parseId, parseOrThrow } from '../middleware/validate';
-import { Payment } from '../models';
 import type { AppContext } from '../context';
 import { presentUser } from '../presenters/user';
-import { actorFromRequest, recordAudit } from '../services/audit';
+import { actorFromRequest } from '../services/audit';
 import { HARD_BOUNDS, listPayments, listUsers, readAuditLog, saveClinicSettings, updateUser } from '../services/admin';
 import { getClinicSettings } from '../services/clinic-settings';
-import { refundPayment } from '../services/refunds';
+import { refundByAdmin } from '../services/refunds';
 import { disconnectUser } from '../socket/evict';
-import { randomUUID } from 'node:crypto';
 import { z as zod } from 'zod';
 
 /** PUT /api/admin/settings wraps the settings so the body can grow without ambiguity. */
@@ -48,17 +47,16 @@ export function createAdminController(ctx: AppContext) {
     res.json(await listPayments(page));
   };
 
+  /** The service locks the payment, counts what is left and keys the refund by the client's attempt id. */
   const refund: RequestHandler = async (req, res) => {
     const id = parseId(req.params.id as string);
-    const payment = id ? await Payment.findByPk(id) : null;
-    if (!payment) throw notFound('That payment');
-    const { amountMinor, reason } = parseOrThrow(adminRefundSchema, req.body);
-    if (!['succeeded', 'partially_refunded'].includes(payment.status)) throw conflict('Only a completed payment can be refunded.');
-    if (amountMinor > payment.amountMinor - payment.refundedMinor) throw conflict(`At most ${payment.amountMinor - payment.refundedMinor} (minor units) is left to refund.`);
-    await refundPayment(ctx, payment, amountMinor, reason, `admin-${randomUUID()}`, req.user!.id);
-    await recordAudit(actorFromRequest(req), { action: 'payment.refund', subjectType: 'payment', subjectId: payment.id, detail: { amountMinor } });
-    await payment.reload();
-    res.json({ payment: { id: payment.id, status: payment.status, amountMinor: payment.amountMinor, refundedMinor: payment.refundedMinor, currency: payment.currency } });
+    if (!id) throw notFound('That payment');
+    const input = parseOrThrow(adminRefundRequestSchema, req.body);
+    const { payment, refund: made } = await refundByAdmin(ctx, id, input, actorFromRequest(req));
+    res.json({
+      payment: { id: payment.id, status: payment.status, amountMinor: payment.amountMinor, refundedMinor: payment.refundedMinor, currency: payment.currency },
+      refund: { id: made.id, status: made.status, amountMinor: made.amountMinor },
+    });
   };
 
   const audit: RequestHandler = async (req, res) => {

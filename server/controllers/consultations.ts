@@ -2,7 +2,7 @@ import type { RequestHandler } from 'express';
 import type { z } from 'zod';
 import { Op } from 'sequelize';
 import type { cancelSchema, holdSlotSchema, paymentSchema, rescheduleSchema } from '@shared/booking';
-import { TEST_CARDS } from '@shared/booking';
+import { describeRefundPolicy, NO_SHOW_REFUND_SHARE, TEST_CARDS } from '@shared/booking';
 import { notFound } from '../errors';
 import { parseId } from '../middleware/validate';
 import { Consultation, Payment, User } from '../models';
@@ -10,7 +10,8 @@ import { presentConsultation } from '../presenters/consultation';
 import type { AppContext } from '../context';
 import { cancellationTerms, findOwnConsultation, holdSlot, reschedule } from '../services/booking';
 import { payForConsultation } from '../services/payments';
-import { cancelConsultation } from '../services/refunds';
+import { cancelConsultation, markNoShow } from '../services/refunds';
+import { getClinicSettings } from '../services/clinic-settings';
 import { actorFromRequest } from '../services/audit';
 import { sendBookingConfirmation } from '../mail/booking-mails';
 import { physioHasConsentedReferral } from '../services/access';
@@ -58,11 +59,16 @@ export function createConsultationController(ctx: AppContext) {
     res.json({ consultation: await present(consultation) });
   };
 
+  /** What a cancellation would refund now, and the policy itself (shown before paying). */
   const terms: RequestHandler = async (req, res) => {
     const consultation = await findOwnConsultation(req.user!, idFrom(req.params.id));
     const payment = await Payment.findOne({ where: { consultationId: consultation.id, status: { [Op.in]: ['succeeded', 'partially_refunded'] } } });
     const cancelledBy = req.user!.role === 'rider' ? 'rider' : 'fitter';
-    res.json({ terms: payment ? await cancellationTerms(consultation, payment.amountMinor - payment.refundedMinor, cancelledBy) : null });
+    const { cancellation } = await getClinicSettings();
+    res.json({
+      terms: payment ? await cancellationTerms(consultation, payment.amountMinor - payment.refundedMinor, cancelledBy) : null,
+      policy: { ...cancellation, noShowRefundShare: NO_SHOW_REFUND_SHARE, summary: describeRefundPolicy(cancellation) },
+    });
   };
 
   const pay: RequestHandler = async (req, res) => {
@@ -82,7 +88,16 @@ export function createConsultationController(ctx: AppContext) {
   const cancel: RequestHandler = async (req, res) => {
     const { reason } = req.body as z.output<typeof cancelSchema>;
     const result = await cancelConsultation(ctx, req.user!, idFrom(req.params.id), reason, actorFromRequest(req));
-    res.json({ consultation: await present(result.consultation), refundedMinor: result.refund?.amountMinor ?? 0, terms: result.terms });
+    const refundedMinor = result.refund?.status === 'succeeded' ? result.refund.amountMinor : 0;
+    // A refund Stripe has not taken yet is promised and retried by the refund job.
+    const refundPendingMinor = result.refund?.status === 'pending' ? result.refund.amountMinor : 0;
+    res.json({ consultation: await present(result.consultation), refundedMinor, refundPendingMinor, terms: result.terms });
+  };
+
+  /** The fitter records that the rider did not come (after the start time). */
+  const noShow: RequestHandler = async (req, res) => {
+    const result = await markNoShow(ctx, req.user!, idFrom(req.params.id), actorFromRequest(req));
+    res.json({ consultation: await present(result.consultation), refund: result.decision });
   };
 
   /** The development-only card chooser; production takes real card details through Stripe. */
@@ -91,5 +106,5 @@ export function createConsultationController(ctx: AppContext) {
     res.json({ cards: TEST_CARDS });
   };
 
-  return { hold, list, show, terms, pay, move, cancel, testCards };
+  return { hold, list, show, terms, pay, move, cancel, noShow, testCards };
 }

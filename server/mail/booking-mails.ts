@@ -67,13 +67,15 @@ export async function sendReceipt(ctx: AppContext, consultation: Consultation, p
   await ctx.mailer.send({ to: rider.email, ...mail });
 }
 
-export async function sendReminder(ctx: AppContext, consultation: Consultation) {
+/** `lead` says which reminder: the usual day-before one, or the short one for late bookings. */
+export async function sendReminder(ctx: AppContext, consultation: Consultation, lead: 'day' | 'hour' = 'day') {
   const { rider, fitter } = await parties(consultation);
+  const when = formatWhen(consultation.startsAt, rider.timeZone);
   const mail = renderMail({
-    subject: `Tomorrow: bike-fit session at ${formatWhen(consultation.startsAt, rider.timeZone)}`,
+    subject: lead === 'day' ? `Tomorrow: bike-fit session at ${when}` : `Starting soon: bike-fit session at ${when}`,
     paragraphs: [
       `Hello ${rider.displayName},`,
-      `A reminder: your session with ${fitter.displayName} starts ${formatWhen(consultation.startsAt, rider.timeZone)}.`,
+      `A reminder: your session with ${fitter.displayName} starts ${when}.`,
       'Have your bike on a trainer, a tape measure and a spirit level at hand.',
     ],
     action: { label: 'Open the session', url: `${publicUrl(ctx)}/consultations/${consultation.id}` },
@@ -81,15 +83,29 @@ export async function sendReminder(ctx: AppContext, consultation: Consultation) 
   await ctx.mailer.send({ to: rider.email, ...mail });
 }
 
-/** Cancellation notice with the calendar cancellation and the refund, to both parties. */
-export async function sendCancellation(ctx: AppContext, consultation: Consultation, refund: { amountMinor: number; currency: string; reason: string } | null) {
+export interface RefundLine {
+  amountMinor: number;
+  currency: string;
+  reason: string;
+  /** Stripe refused the refund for good; the studio sorts it out by hand. */
+  failed?: boolean;
+}
+
+function refundSentence(refund: RefundLine): string {
+  if (refund.failed) return 'We could not send your refund to your card automatically. The studio has been told and will contact you about it.';
+  return refund.amountMinor > 0 ? `${formatMoney(refund.amountMinor, refund.currency, 'en-GB')} is on its way back to your card. ${refund.reason}` : `No refund is due. ${refund.reason}`;
+}
+
+/**
+ * Cancellation notice with the calendar cancellation and the refund, to both parties, or to one:
+ * when a refund is due the rider's notice waits until Stripe has taken it (see refund-jobs.ts).
+ */
+export async function sendCancellation(ctx: AppContext, consultation: Consultation, refund: RefundLine | null, options: { to?: 'rider' | 'fitter' | 'both' } = {}) {
   const { rider, fitter } = await parties(consultation);
-  for (const person of [rider, fitter]) {
-    const refundLine = refund && person.id === rider.id
-      ? refund.amountMinor > 0
-        ? `${formatMoney(refund.amountMinor, refund.currency, 'en-GB')} is on its way back to your card. ${refund.reason}`
-        : `No refund is due. ${refund.reason}`
-      : '';
+  const to = options.to ?? 'both';
+  const people = to === 'both' ? [rider, fitter] : to === 'rider' ? [rider] : [fitter];
+  for (const person of people) {
+    const refundLine = refund && person.id === rider.id ? refundSentence(refund) : '';
     const mail = renderMail({
       subject: `Cancelled: bike-fit session on ${formatWhen(consultation.startsAt, person.timeZone)}`,
       paragraphs: [`Hello ${person.displayName},`, `The session on ${formatWhen(consultation.startsAt, person.timeZone)} is cancelled.`, refundLine].filter(Boolean),
@@ -97,4 +113,16 @@ export async function sendCancellation(ctx: AppContext, consultation: Consultati
     });
     await ctx.mailer.send({ to: person.email, ...mail, attachments: [inviteFor(ctx, consultation, fitter, person, true)] });
   }
+}
+
+/** A refund that is not part of a cancellation (an admin's refund, a late charge given back). */
+export async function sendRefundNotice(ctx: AppContext, consultation: Consultation, refund: RefundLine) {
+  const { rider } = await parties(consultation);
+  const subject = refund.failed ? 'Refund: the studio will contact you' : `Refund: ${formatMoney(refund.amountMinor, refund.currency, 'en-GB')} for your bike-fit session`;
+  const mail = renderMail({
+    subject,
+    paragraphs: [`Hello ${rider.displayName},`, refundSentence(refund), `Session reference: ${consultation.id}.`],
+    action: { label: 'See your booking', url: `${publicUrl(ctx)}/consultations/${consultation.id}` },
+  });
+  await ctx.mailer.send({ to: rider.email, ...mail });
 }

@@ -1,5 +1,15 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 
+export const REFUND_STATUSES = ['pending', 'succeeded', 'failed'] as const;
+export type RefundStatus = (typeof REFUND_STATUSES)[number];
+/** Which e-mail goes to the rider once the refund succeeds (exactly once, see noticeSentAt). */
+export const REFUND_NOTICES = ['none', 'cancellation', 'refund'] as const;
+export type RefundNotice = (typeof REFUND_NOTICES)[number];
+
+/**
+ * A refund, recorded as `pending` with its cause and settled by the refund job when Stripe answers.
+ * The idempotency key names the cause (`cancel-12`, `admin-<uuid>`), so a cause refunds at most once.
+ */
 export class Refund extends Model<InferAttributes<Refund>, InferCreationAttributes<Refund>> {
   declare id: CreationOptional<number>;
   declare paymentId: number;
@@ -8,6 +18,11 @@ export class Refund extends Model<InferAttributes<Refund>, InferCreationAttribut
   declare amountMinor: number;
   declare reason: string;
   declare actorId: number | null;
+  declare status: CreationOptional<RefundStatus>;
+  declare notice: CreationOptional<RefundNotice>;
+  declare lastError: CreationOptional<string | null>;
+  declare settledAt: CreationOptional<Date | null>;
+  declare noticeSentAt: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
 
   static initModel(sequelize: Sequelize): typeof Refund {
@@ -20,6 +35,11 @@ export class Refund extends Model<InferAttributes<Refund>, InferCreationAttribut
         amountMinor: { type: DataTypes.INTEGER.UNSIGNED, allowNull: false },
         reason: { type: DataTypes.STRING(300), allowNull: false },
         actorId: { type: DataTypes.INTEGER.UNSIGNED, allowNull: true },
+        status: { type: DataTypes.ENUM(...REFUND_STATUSES), allowNull: false, defaultValue: 'succeeded' },
+        notice: { type: DataTypes.ENUM(...REFUND_NOTICES), allowNull: false, defaultValue: 'none' },
+        lastError: { type: DataTypes.STRING(300), allowNull: true },
+        settledAt: { type: DataTypes.DATE, allowNull: true },
+        noticeSentAt: { type: DataTypes.DATE, allowNull: true },
         createdAt: DataTypes.DATE,
       },
       { sequelize, tableName: 'refunds', updatedAt: false },

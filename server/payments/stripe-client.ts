@@ -8,12 +8,15 @@ import type { Config } from '../config';
  */
 export function createStripe(config: Pick<Config, 'STRIPE_SECRET_KEY' | 'STRIPE_API_BASE'>): Stripe | null {
   if (!config.STRIPE_SECRET_KEY) return null;
-  if (!config.STRIPE_API_BASE) return new Stripe(config.STRIPE_SECRET_KEY, { maxNetworkRetries: 2 });
+  // A bounded wait (20 s, 2 retries): the payment reconciler assumes no request is still waiting
+  // for Stripe after a few minutes (RECONCILE_AFTER_MS).
+  if (!config.STRIPE_API_BASE) return new Stripe(config.STRIPE_SECRET_KEY, { maxNetworkRetries: 2, timeout: 20_000 });
   const base = new URL(config.STRIPE_API_BASE);
   return new Stripe(config.STRIPE_SECRET_KEY, {
     host: base.hostname,
     port: Number(base.port || (base.protocol === 'https:' ? 443 : 80)),
     protocol: base.protocol === 'https:' ? 'https' : 'http',
     maxNetworkRetries: 0,
+    timeout: 20_000,
   });
 }

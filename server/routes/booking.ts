@@ -1,5 +1,5 @@
 import { Router } from 'express';
-import { cancelSchema, fitterSettingsSchema, holdSlotSchema, paymentSchema, rescheduleSchema } from '@shared/booking';
+import { cancelSchema, fitterSettingsSchema, holdSlotSchema, noShowSchema, paymentSchema, rescheduleSchema } from '@shared/booking';
 import { requireRole } from '../middleware/require-role';
 import { validateBody } from '../middleware/validate';
 import type { AppContext } from '../context';
@@ -24,5 +24,6 @@ export function createBookingRouter(ctx: AppContext): Router {
   router.post('/consultations/:id/payment', requireRole('rider'), validateBody(paymentSchema), consultations.pay);
   router.post('/consultations/:id/reschedule', requireRole('rider', 'fitter'), validateBody(rescheduleSchema), consultations.move);
   router.post('/consultations/:id/cancel', requireRole('rider', 'fitter', 'admin'), validateBody(cancelSchema), consultations.cancel);
+  router.post('/consultations/:id/no-show', requireRole('fitter'), validateBody(noShowSchema), consultations.noShow);
   return router;
 }

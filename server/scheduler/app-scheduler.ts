@@ -4,6 +4,8 @@ import { Consultation } from '../models';
 import { sendReminder } from '../mail/booking-mails';
 import { BOOKING_REMINDER } from '../services/booking-jobs';
 import { expireHolds } from '../services/booking';
+import { reconcilePendingPayments } from '../services/payment-reconcile';
+import { REFUND_JOB, executeRefund } from '../services/refund-jobs';
 import { createScheduler } from './scheduler';
 import { CHAT_NOTICE, sendChatNotice } from '../services/chat-notices';
 import { REFERRAL_ESCALATE, escalateReferral } from '../services/referral-notices';
@@ -19,7 +21,8 @@ export function createAppScheduler(ctx: AppContext, options: { sequelize?: Seque
     logger: ctx.logger,
     intervalMs: options.intervalMs,
     instanceId: options.instanceId,
-    periodic: [() => expireHolds(ctx)],
+    // Reconcile first: an attempt settled from Stripe's record must not have its hold expired under it.
+    periodic: [() => reconcilePendingPayments(ctx), () => expireHolds(ctx)],
     handlers: {
       /** Never for a cancelled or moved booking: the job re-reads the booking when it runs. */
       [CHAT_NOTICE]: (payload) => sendChatNotice(ctx, payload),
@@ -30,7 +33,11 @@ export function createAppScheduler(ctx: AppContext, options: { sequelize?: Seque
       [BOOKING_REMINDER]: async (payload) => {
         const consultation = await Consultation.findByPk(Number(payload.consultationId));
         if (!consultation || consultation.status !== 'booked' || consultation.calendarSequence !== Number(payload.sequence)) return;
-        await sendReminder(ctx, consultation);
+        await sendReminder(ctx, consultation, payload.lead === 'hour' ? 'hour' : 'day');
+      },
+      /** Throws while Stripe is unreachable, so the scheduler retries with back-off. */
+      [REFUND_JOB]: async (payload) => {
+        await executeRefund(ctx, Number(payload.refundId));
       },
     },
   });

@@ -1,8 +1,8 @@
 import { randomUUID } from 'node:crypto';
 import { Op, Transaction } from 'sequelize';
-import { isOfferedSlot, decideRefund } from '@shared/booking';
+import { decideRefund, slotRefusal, type SlotRefusal } from '@shared/booking';
 import { conflict, notFound, badRequest } from '../errors';
-import { Consultation, FitterProfile, User } from '../models';
+import { Consultation, FitterProfile, Payment, User } from '../models';
 import type { AppContext } from '../context';
 import { transitionConsultation } from './consultation-states';
 import { busyIntervals, getPublishedFitter } from './fitters';
@@ -12,7 +12,22 @@ import { recordAudit, type AuditActor } from './audit';
 
 /** Reads after the fitter lock must see rows committed by the request that held it before us. */
 const READ_COMMITTED = Transaction.ISOLATION_LEVELS.READ_COMMITTED;
-const SLOT_TAKEN = 'Sorry, that time was just taken. Please pick another slot.';
+
+/** Why a time cannot be booked, in the rider's words: "taken" only when it really was offered. */
+function slotMessage(refusal: SlotRefusal, availability: { horizonDays: number; minNoticeHours: number }): string {
+  switch (refusal) {
+    case 'past':
+      return 'That time has already passed. Please pick one of the times shown.';
+    case 'beyond-horizon':
+      return `Sessions can be booked at most ${availability.horizonDays} days ahead. Please pick one of the times shown.`;
+    case 'notice':
+      return `This fitter needs at least ${availability.minNoticeHours} h notice. Please pick a later time.`;
+    case 'not-offered':
+      return 'That time is not one this fitter offers. Please pick one of the times shown.';
+    case 'taken':
+      return 'Sorry, that time was just taken. Please pick another slot.';
+  }
+}
 
 /**
  * Hold a slot for a rider while they pay. Atomic: the fitter's profile row is locked FOR UPDATE,
@@ -36,7 +51,8 @@ export async function holdSlot(ctx: AppContext, rider: User, input: { fitterId: 
 
     const endsAt = new Date(input.startsAt.getTime() + profile.availability.slotMinutes * 60_000);
     const busy = await busyIntervals(fitter.id, new Date(input.startsAt.getTime() - 86_400_000), new Date(endsAt.getTime() + 86_400_000), now, { transaction });
-    if (!isOfferedSlot({ availability: profile.availability, timeZone: fitter.timeZone, busy, now }, input.startsAt)) throw conflict(SLOT_TAKEN);
+    const refusal = slotRefusal({ availability: profile.availability, timeZone: fitter.timeZone, busy, now }, input.startsAt);
+    if (refusal) throw conflict(slotMessage(refusal, profile.availability));
 
     const consultation = await Consultation.create(
       {
@@ -66,11 +82,11 @@ export async function expireHolds(ctx: AppContext, now = new Date()): Promise<nu
   const stale = await Consultation.findAll({ where: { status: { [Op.in]: ['requested', 'awaiting_payment'] }, holdExpiresAt: { [Op.lte]: now } }, limit: 200 });
   let expired = 0;
   for (const consultation of stale) {
-    // A payment in flight keeps its consultation; the payment service settles it either way.
-    if (consultation.status === 'awaiting_payment') continue;
     await ctx.sequelize.transaction(async (transaction) => {
       const fresh = await Consultation.findByPk(consultation.id, { transaction, lock: transaction.LOCK.UPDATE });
-      if (fresh?.status !== 'requested' || !fresh.holdExpiresAt || fresh.holdExpiresAt > now) return;
+      if (!fresh || !['requested', 'awaiting_payment'].includes(fresh.status) || !fresh.holdExpiresAt || fresh.holdExpiresAt > now) return;
+      // A payment in flight keeps its consultation: the reconciler asks Stripe and settles it either way.
+      if (fresh.status === 'awaiting_payment' && (await Payment.count({ where: { consultationId: fresh.id, status: 'pending' }, transaction })) > 0) return;
       await transitionConsultation(ctx, fresh, 'expired', { actorId: null, note: 'hold ran out', transaction });
       expired += 1;
     });
@@ -113,7 +129,8 @@ export async function reschedule(ctx: AppContext, user: User, consultationId: nu
     if (startsAt.getTime() === consultation.startsAt.getTime()) throw badRequest('Choose a different time to move the session to.');
     const endsAt = new Date(startsAt.getTime() + profile.availability.slotMinutes * 60_000);
     const busy = await busyIntervals(fitter.id, new Date(startsAt.getTime() - 86_400_000), new Date(endsAt.getTime() + 86_400_000), now, { transaction, excludeId: consultation.id });
-    if (!isOfferedSlot({ availability: profile.availability, timeZone: fitter.timeZone, busy, now }, startsAt)) throw conflict(SLOT_TAKEN);
+    const refusal = slotRefusal({ availability: profile.availability, timeZone: fitter.timeZone, busy, now }, startsAt);
+    if (refusal) throw conflict(slotMessage(refusal, profile.availability));
     await transitionConsultation(ctx, consultation, 'booked', {
       actorId: user.id,
       note: `moved from ${consultation.startsAt.toISOString()}`,

@@ -1,57 +1,38 @@
+import { randomUUID } from 'node:crypto';
 import { Op } from 'sequelize';
-import { conflict } from '../errors';
+import { noShowRefund, type RefundDecision } from '@shared/booking';
+import { conflict, notFound } from '../errors';
 import { Consultation, Payment, Refund } from '../models';
 import type { AppContext } from '../context';
-import { AppError } from '../errors';
 import { transitionConsultation } from './consultation-states';
 import { cancellationTerms, findOwnConsultation } from './booking';
 import { cancelBookingReminders } from './booking-jobs';
 import { recordAudit, type AuditActor } from './audit';
+import { inTransaction } from './db-retry';
+import { recordRefundRequest, refundableLeft, tryRefundNow } from './refund-jobs';
 import { sendCancellation } from '../mail/booking-mails';
 
-/**
- * Refund part or all of a payment through Stripe. The idempotency key names the reason
- * (`cancel-<consultation>` for a cancellation), so a retried request never refunds twice.
- */
-export async function refundPayment(ctx: AppContext, payment: Payment, amountMinor: number, reason: string, idempotencyKey: string, actorId: number | null): Promise<Refund | null> {
-  const existing = await Refund.findOne({ where: { idempotencyKey } });
-  if (existing) return existing;
-  const refundable = payment.amountMinor - payment.refundedMinor;
-  const amount = Math.min(amountMinor, refundable);
-  if (amount <= 0) return null;
-  if (!ctx.stripe || !payment.stripeChargeId) throw new AppError(503, 'payments_unavailable', 'Refunds are not possible right now. Please contact the studio.');
-  const stripeRefund = await ctx.stripe.refunds.create({ charge: payment.stripeChargeId, amount, metadata: { paymentId: String(payment.id) } }, { idempotencyKey: `refund-${idempotencyKey}` });
-  return ctx.sequelize.transaction(async (transaction) => {
-    const locked = await Payment.findByPk(payment.id, { transaction, lock: transaction.LOCK.UPDATE });
-    const [refund, created] = await Refund.findOrCreate({
-      where: { idempotencyKey },
-      defaults: { paymentId: payment.id, idempotencyKey, stripeRefundId: stripeRefund.id, amountMinor: amount, reason: reason.slice(0, 300), actorId },
-      transaction,
-    });
-    if (created && locked) {
-      const refunded = locked.refundedMinor + amount;
-      await locked.update({ refundedMinor: refunded, status: refunded >= locked.amountMinor ? 'refunded' : 'partially_refunded' }, { transaction });
-    }
-    return refund;
-  });
-}
+const PAID = ['succeeded', 'partially_refunded'] as const;
 
 /**
  * Cancel a consultation. A booked one is refunded by the clinic's policy (a fitter's or admin's
- * cancellation refunds in full); a hold is simply released. The calendar entry is cancelled and
- * both parties are told.
+ * cancellation refunds in full); a hold is simply released. The cancellation, the reminder's
+ * removal and the refund promise (a pending refund row and its job) commit together, so a Stripe
+ * outage can no longer lose the refund. Stripe is tried once at once; the job retries after that.
+ * The fitter's notice goes now; the rider's goes once the refund has gone through (refund-jobs.ts),
+ * or now when no refund is due.
  */
 export async function cancelConsultation(ctx: AppContext, user: Express.User, consultationId: number, reason: string | undefined, actor: AuditActor) {
   const own = user.role === 'admin' ? await Consultation.findByPk(consultationId) : await findOwnConsultation(user, consultationId);
   if (!own) throw conflict('That booking was not found.');
   const cancelledBy = user.role === 'rider' ? 'rider' : user.role === 'fitter' ? 'fitter' : 'admin';
-  const payment = await Payment.findOne({ where: { consultationId: own.id, status: { [Op.in]: ['succeeded', 'partially_refunded'] } } });
-  const terms = payment ? await cancellationTerms(own, payment.amountMinor, cancelledBy) : null;
 
-  const consultation = await ctx.sequelize.transaction(async (transaction) => {
+  const result = await inTransaction(ctx, undefined, async (transaction) => {
     const locked = await Consultation.findByPk(own.id, { transaction, lock: transaction.LOCK.UPDATE });
     if (!locked || !['requested', 'awaiting_payment', 'booked'].includes(locked.status)) throw conflict('Only a booked or held session can be cancelled.');
     const wasBooked = locked.status === 'booked';
+    const payment = await Payment.findOne({ where: { consultationId: locked.id, status: { [Op.in]: PAID } }, transaction, lock: transaction.LOCK.UPDATE });
+    const terms: RefundDecision | null = payment ? await cancellationTerms(locked, payment.amountMinor, cancelledBy) : null;
     await transitionConsultation(ctx, locked, 'cancelled', {
       actorId: user.id,
       note: reason,
@@ -60,17 +41,71 @@ export async function cancelConsultation(ctx: AppContext, user: Express.User, co
     });
     await cancelBookingReminders(locked, { transaction });
     await recordAudit(actor, { action: 'consultation.cancel', subjectType: 'consultation', subjectId: locked.id, subjectUserId: locked.riderId, detail: { cancelledBy } }, { transaction });
-    return { locked, wasBooked };
+    const refund = payment && terms && terms.amountMinor > 0
+      ? await recordRefundRequest({ payment, amountMinor: terms.amountMinor, reason: terms.reason, idempotencyKey: `cancel-${locked.id}`, notice: 'cancellation', actorId: user.id }, transaction)
+      : null;
+    return { consultation: locked, wasBooked, payment, terms, refund };
   });
 
-  let refund: Refund | null = null;
-  if (payment && terms && terms.amountMinor > 0) {
-    refund = await refundPayment(ctx, payment, terms.amountMinor, terms.reason, `cancel-${own.id}`, user.id);
+  const refund = result.refund ? await tryRefundNow(ctx, result.refund.id) : null;
+  if (result.wasBooked) {
+    const money = result.terms && result.payment ? { amountMinor: 0, currency: result.payment.currency, reason: result.terms.reason } : null;
+    // With a refund due, the rider's notice waits for Stripe (sent by the refund job, once).
+    await sendCancellation(ctx, result.consultation, money, { to: refund ? 'fitter' : 'both' }).catch((error: unknown) => ctx.logger.error({ err: error }, 'cancellation e-mail failed'));
   }
-  if (consultation.wasBooked) {
-    await sendCancellation(ctx, consultation.locked, terms ? { amountMinor: refund?.amountMinor ?? 0, currency: payment!.currency, reason: terms.reason } : null).catch((error: unknown) =>
-      ctx.logger.error({ err: error }, 'cancellation e-mail failed'),
-    );
-  }
-  return { consultation: consultation.locked, refund, terms };
+  return { consultation: result.consultation, refund, terms: result.terms };
+}
+
+/**
+ * An admin's refund of part of a payment. The payment row is locked (SELECT … FOR UPDATE) while
+ * what is left is counted from the refunds already promised or made, so a double click cannot
+ * refund twice; the client's key per attempt makes a retried request return the first refund.
+ * The rider is e-mailed once the refund has gone through.
+ */
+export async function refundByAdmin(ctx: AppContext, paymentId: number, input: { amountMinor: number; reason: string; idempotencyKey?: string }, actor: AuditActor): Promise<{ payment: Payment; refund: Refund }> {
+  const key = `admin-${input.idempotencyKey ?? randomUUID()}`;
+  const recorded = await inTransaction(ctx, undefined, async (transaction) => {
+    const payment = await Payment.findByPk(paymentId, { transaction, lock: transaction.LOCK.UPDATE });
+    if (!payment) throw notFound('That payment');
+    const again = await Refund.findOne({ where: { idempotencyKey: key }, transaction });
+    if (again) {
+      if (again.paymentId !== payment.id) throw conflict('That refund attempt belongs to another payment. Reload the page and try again.');
+      return again;
+    }
+    if (!(PAID as readonly string[]).includes(payment.status)) throw conflict('Only a completed payment can be refunded.');
+    const left = await refundableLeft(payment, transaction);
+    if (input.amountMinor > left) throw conflict(`At most ${left} (minor units) is left to refund.`);
+    const refund = await recordRefundRequest({ payment, amountMinor: input.amountMinor, reason: input.reason, idempotencyKey: key, notice: 'refund', actorId: actor.actorId }, transaction);
+    if (!refund) throw conflict('Nothing is left to refund on this payment.');
+    await recordAudit(actor, { action: 'payment.refund', subjectType: 'payment', subjectId: payment.id, subjectUserId: payment.riderId, detail: { amountMinor: refund.amountMinor } }, { transaction });
+    return refund;
+  });
+  const refund = (await tryRefundNow(ctx, recorded.id)) ?? recorded;
+  return { payment: (await Payment.findByPk(paymentId))!, refund };
+}
+
+/**
+ * The fitter records that the rider did not come: only for their own booked session, only once
+ * its start time has passed, through the one state-transition module, audited. The clinic's
+ * no-show rule (NO_SHOW_REFUND_SHARE, invented default: no refund) decides any refund.
+ */
+export async function markNoShow(ctx: AppContext, fitter: Express.User, consultationId: number, actor: AuditActor) {
+  const own = await findOwnConsultation(fitter, consultationId);
+  if (fitter.role !== 'fitter') throw notFound('That consultation');
+  const result = await inTransaction(ctx, undefined, async (transaction) => {
+    const locked = (await Consultation.findByPk(own.id, { transaction, lock: transaction.LOCK.UPDATE }))!;
+    if (locked.status !== 'booked') throw conflict('Only a booked session that has not started in the room can be marked as missed.');
+    if (locked.startsAt.getTime() > Date.now()) throw conflict('You can record a missed session once its start time has passed.');
+    const payment = await Payment.findOne({ where: { consultationId: locked.id, status: { [Op.in]: PAID } }, transaction, lock: transaction.LOCK.UPDATE });
+    await transitionConsultation(ctx, locked, 'no_show', { actorId: fitter.id, note: 'rider did not attend', transaction });
+    await cancelBookingReminders(locked, { transaction });
+    await recordAudit(actor, { action: 'consultation.no_show', subjectType: 'consultation', subjectId: locked.id, subjectUserId: locked.riderId }, { transaction });
+    const decision = payment ? noShowRefund(payment.amountMinor) : null;
+    const refund = payment && decision && decision.amountMinor > 0
+      ? await recordRefundRequest({ payment, amountMinor: decision.amountMinor, reason: decision.reason, idempotencyKey: `no-show-${locked.id}`, notice: 'refund', actorId: fitter.id }, transaction)
+      : null;
+    return { consultation: locked, refund, decision };
+  });
+  if (result.refund) await tryRefundNow(ctx, result.refund.id);
+  return { consultation: result.consultation, decision: result.decision };
 }

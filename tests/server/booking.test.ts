@@ -1,11 +1,13 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { randomUUID } from 'node:crypto';
 import { DateTime } from 'luxon';
-import { Consultation, Payment } from '@server/models';
+import { Consultation, ConsultationEvent, Payment } from '@server/models';
 import type { SaddlestepApp } from '@server/app';
 import { startTestApp } from '../support/app';
 import { buildFitter, isoDateIn, riderReadyToBook } from '../support/booking-factories';
 import { signedInAs } from '../support/factories';
+import { waitForMails } from '../support/mail';
+import { closedPortUrl, withStripeAt } from '../support/stripe-outage';
 
 let saddlestep: SaddlestepApp;
 beforeAll(async () => {
@@ -146,12 +148,14 @@ describe('POST /api/consultations/:id/payment', () => {
   it('keeps the hold and the attempt retryable when the payment service is unavailable', async () => {
     const { rider, id } = await held();
     const attemptKey = randomUUID();
-    // The Stripe fake answers tok_429 with a rate-limit error, standing in for an outage.
-    const first = await rider.post(`/api/consultations/${id}/payment`, { token: 'tok_429', attemptKey });
-    expect(first.status).toBe(502);
-    expect(first.body.error.message).toMatch(/try again/);
-    const retry = await rider.post(`/api/consultations/${id}/payment`, { token: 'tok_429', attemptKey });
-    expect(retry.status).toBe(502);
+    // The real Stripe client pointed at a port where nothing listens: a real outage.
+    const [first, retry] = await withStripeAt(saddlestep.ctx, await closedPortUrl(), async () => [
+      await rider.post(`/api/consultations/${id}/payment`, { token: 'tok_visa', attemptKey }),
+      await rider.post(`/api/consultations/${id}/payment`, { token: 'tok_visa', attemptKey }),
+    ]);
+    expect(first!.status).toBe(502);
+    expect(first!.body.error.message).toMatch(/try again/);
+    expect(retry!.status).toBe(502);
     expect((await Consultation.findByPk(id))!.status).toBe('awaiting_payment');
     expect(await Payment.count({ where: { consultationId: id } })).toBe(1);
   });
@@ -169,6 +173,14 @@ describe('POST /api/consultations/:id/payment', () => {
     const payments = await Payment.findAll({ where: { consultationId: id } });
     expect(payments).toHaveLength(1);
     expect(payments[0]!.status).toBe('succeeded');
+    // The success step ran once: one charge at Stripe, one confirmation, one receipt.
+    // Every charge the Stripe fake holds (it records no customer on charges, so none can be filtered by it).
+    let charges = 0;
+    for await (const charge of saddlestep.ctx.stripe!.charges.list({ limit: 100 })) if (charge.metadata?.consultationId === String(id)) charges += 1;
+    expect(charges).toBe(1);
+    expect(await waitForMails(rider.user.email, { subject: /^Booked:/, count: 2, timeoutMs: 1500 })).toHaveLength(1);
+    expect(await waitForMails(rider.user.email, { subject: /^Receipt:/, count: 2, timeoutMs: 500 })).toHaveLength(1);
+    expect(await ConsultationEvent.count({ where: { consultationId: id, toStatus: 'booked' } })).toBe(1);
   });
 
   it('refuses a second payment with a new key once paid', async () => {
