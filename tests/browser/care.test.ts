@@ -7,7 +7,7 @@ import type { SaddlestepApp } from '@server/app';
 import { PlanStep, Referral } from '@server/models';
 import { startTestApp } from '../support/app';
 import { TEST_PASSWORD } from '../support/factories';
-import { caseOnStepOne, checkInBody, today } from '../support/care-factories';
+import { caseOnStepOne, checkInBody, skipAdaptationDays, today } from '../support/care-factories';
 import { TEST_SETUP } from '../support/plan-factories';
 import { launchBrowser, openPage, signIn, type BrowserSession } from '../support/browser';
 import { checkInReasonText, stepMarkers, trendRows } from '@/utils/check-in-trend';
@@ -272,6 +272,21 @@ describe('check-ins, referrals and physio limits in the browser', () => {
     await rider.page.locator('[data-test="referral-answer"]').waitFor();
     await expect(rider.page.locator('[data-test="referral-answer"]').innerText()).resolves.toContain('nerve irritation has settled');
     await rider.context.close();
+  });
+});
+
+describe("the rider's next step (API, no browser)", () => {
+  it('follows the care order: plan under way, check-in due, step ready, then urgent advice over everything', async () => {
+    const c = await caseOnStepOne(saddlestep.app);
+    const next = async () => (await c.rider.get('/api/rider/home').expect(200)).body.nextAction as { kind: string; stepIndex?: number };
+    await expect(next()).resolves.toMatchObject({ kind: 'plan_under_way' });
+    await PlanStep.update({ checkInDue: today() }, { where: { planId: c.planId, stepIndex: 1 } });
+    await expect(next()).resolves.toMatchObject({ kind: 'check_in', stepIndex: 1 });
+    await c.rider.post(`/api/plans/${c.planId}/steps/1/check-ins`, checkInBody({ rides: 10 })).expect(201);
+    await skipAdaptationDays(c.planId, 2);
+    await expect(next()).resolves.toMatchObject({ kind: 'apply_step', stepIndex: 2 });
+    await c.rider.post(`/api/plans/${c.planId}/steps/1/check-ins`, checkInBody({ redFlagAnswers: { 'leg-weakness': true } })).expect(201);
+    await expect(next()).resolves.toMatchObject({ kind: 'seek_care' });
   });
 });
 
