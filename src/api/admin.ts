@@ -114,9 +114,14 @@ export const adminApi = {
   },
 
   payments: (page: number) => http.get(`/api/admin/payments${query({ page })}`, paymentPageSchema),
-  /** Answers with the payment's new totals and status; the caller keeps the names it already shows. */
-  async refund(id: number, body: { amountMinor: number; reason: string }): Promise<RefundedPayment> {
-    return (await http.post(`/api/admin/payments/${id}/refund`, body, z.object({ payment: refundedPaymentSchema }))).payment;
+  /**
+   * Answers with the payment's new totals and status; the caller keeps the names it already shows.
+   * `idempotencyKey` is one UUID per attempt, reused for a retry, so a refund is made once.
+   * `pending`: recorded, but Stripe has not taken it yet (the server keeps trying).
+   */
+  async refund(id: number, body: { amountMinor: number; reason: string; idempotencyKey: string }): Promise<{ payment: RefundedPayment; pending: boolean }> {
+    const answer = await http.post(`/api/admin/payments/${id}/refund`, body, z.object({ payment: refundedPaymentSchema, refund: z.object({ status: z.string() }).optional() }));
+    return { payment: answer.payment, pending: answer.refund?.status === 'pending' };
   },
 
   audit: (q: AuditQuery) => http.get(`/api/admin/audit${query({ ...q })}`, auditPageSchema),

@@ -27,6 +27,10 @@ const envelope = z.object({ consultation: consultationSchema });
 const termsSchema = z.object({ amountMinor: z.number(), share: z.number(), reason: z.string(), mayReschedule: z.boolean() });
 export type CancellationTerms = z.infer<typeof termsSchema>;
 
+/** The studio's refund rules, with the server's own sentences for them (shown before paying). */
+const policySchema = z.object({ windowHours: z.number(), earlyRefundShare: z.number(), lateRefundShare: z.number(), noShowRefundShare: z.number(), summary: z.array(z.string()) });
+export type RefundPolicyView = z.infer<typeof policySchema>;
+
 /**
  * Whether the rider may book now. Read leniently: the intake feature owns this endpoint, and only
  * `ready`, `reason` and `level` matter to the booking page.
@@ -68,13 +72,21 @@ export const consultationsApi = {
   async cancellationTerms(id: number): Promise<CancellationTerms | null> {
     return (await http.get(`/api/consultations/${id}/cancellation-terms`, z.object({ terms: termsSchema.nullable() }))).terms;
   },
+  async refundPolicy(id: number): Promise<RefundPolicyView> {
+    return (await http.get(`/api/consultations/${id}/cancellation-terms`, z.object({ policy: policySchema }))).policy;
+  },
+  /** `refundPendingMinor`: promised but not yet taken by Stripe (the server retries it). */
   cancel(id: number, reason?: string) {
     const body = reason ? { reason } : {};
     return http.post(
       `/api/consultations/${id}/cancel`,
       body,
-      z.object({ consultation: consultationSchema, refundedMinor: z.number(), terms: termsSchema.nullable().optional() }),
+      z.object({ consultation: consultationSchema, refundedMinor: z.number(), refundPendingMinor: z.number().optional(), terms: termsSchema.nullable().optional() }),
     );
+  },
+  /** The fitter records that the rider did not come; only after the start time. */
+  async noShow(id: number): Promise<ConsultationView> {
+    return (await http.post(`/api/consultations/${id}/no-show`, {}, envelope)).consultation;
   },
   /** Development only: the server answers 404 in production, where real card entry takes over. */
   async testCards(): Promise<TestCard[] | null> {

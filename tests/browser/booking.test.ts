@@ -177,6 +177,10 @@ describe('booking in the browser', () => {
     await page.waitForURL('**/consultations/*/pay');
     await expect(page.locator('[data-test="hold-countdown"]').innerText()).resolves.toMatch(/\d+:\d{2}/);
     await expect(page.locator('[data-test="consultation-fee"]').innerText()).resolves.toBe('€75.00');
+    // The refund rules in force are on the page before Pay (the demo studio's defaults).
+    const policy = page.locator('[data-test="refund-policy"] li').first();
+    await policy.waitFor();
+    await expect(page.locator('[data-test="refund-policy"]').innerText()).resolves.toMatch(/24 h or more before the start: the full fee back[\s\S]*less than 24 h before the start: 50 % back[\s\S]*no-show\): no refund/);
     await page.locator('[data-test="card-tok_visa"]').click();
     await page.locator('[data-test="pay"]').click();
 
