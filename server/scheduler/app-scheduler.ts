@@ -15,12 +15,13 @@ import { CHECKIN_DUE, CHECKIN_OVERDUE, CHECKIN_OVERDUE_MAIL, markCheckInOverdue,
  * The scheduler with Saddlestep's job handlers. `sequelize` defaults to the app's pool; tests pass
  * a second pool to act as a second server process competing for the same jobs.
  */
-export function createAppScheduler(ctx: AppContext, options: { sequelize?: Sequelize; intervalMs?: number; instanceId?: string } = {}) {
+export function createAppScheduler(ctx: AppContext, options: { sequelize?: Sequelize; intervalMs?: number; instanceId?: string; onlyKeys?: string[] } = {}) {
   return createScheduler({
     sequelize: options.sequelize ?? ctx.sequelize,
     logger: ctx.logger,
     intervalMs: options.intervalMs,
     instanceId: options.instanceId,
+    onlyKeys: options.onlyKeys,
     // Reconcile first: an attempt settled from Stripe's record must not have its hold expired under it.
     periodic: [() => reconcilePendingPayments(ctx), () => expireHolds(ctx)],
     handlers: {

@@ -13,6 +13,11 @@ export interface SchedulerOptions {
   intervalMs?: number;
   instanceId?: string;
   batchSize?: number;
+  /**
+   * Claim only jobs with these unique keys. Tests that run a scheduler with a deliberately broken
+   * part use it so they never touch jobs of test files running beside them on the same database.
+   */
+  onlyKeys?: string[];
 }
 
 /**
@@ -47,8 +52,8 @@ export function createScheduler(options: SchedulerOptions) {
         { replacements: [new Date(now.getTime() - STALE_AFTER_MS)], transaction },
       );
       const rows = await sequelize.query<{ id: number; kind: string; payload: unknown; attempts: number }>(
-        "SELECT id, kind, payload, attempts FROM scheduled_jobs WHERE status = 'pending' AND run_at <= ? ORDER BY run_at, id LIMIT ? FOR UPDATE SKIP LOCKED",
-        { replacements: [now, batchSize], type: QueryTypes.SELECT, transaction },
+        `SELECT id, kind, payload, attempts FROM scheduled_jobs WHERE status = 'pending' AND run_at <= ?${options.onlyKeys ? ' AND unique_key IN (?)' : ''} ORDER BY run_at, id LIMIT ? FOR UPDATE SKIP LOCKED`,
+        { replacements: options.onlyKeys ? [now, options.onlyKeys, batchSize] : [now, batchSize], type: QueryTypes.SELECT, transaction },
       );
       if (rows.length === 0) return [];
       await sequelize.query(
@@ -59,14 +64,15 @@ export function createScheduler(options: SchedulerOptions) {
     });
   }
 
-  async function finish(id: number, outcome: { ok: true } | { ok: false; error: string; attempts: number }) {
+  /** `clock` is the tick's time: a retry is scheduled after it, so a later round of the same tick never re-runs a failure. */
+  async function finish(id: number, clock: Date, outcome: { ok: true } | { ok: false; error: string; attempts: number }) {
     const now = new Date();
     if (outcome.ok) {
       await sequelize.query("UPDATE scheduled_jobs SET status = 'done', done_at = ?, updated_at = ? WHERE id = ? AND locked_by = ?", { replacements: [now, now, id, instanceId] });
       return;
     }
     const giveUp = outcome.attempts >= MAX_ATTEMPTS;
-    const retryAt = new Date(now.getTime() + 60_000 * 2 ** outcome.attempts);
+    const retryAt = new Date(Math.max(now.getTime(), clock.getTime()) + 60_000 * 2 ** outcome.attempts);
     await sequelize.query(
       `UPDATE scheduled_jobs SET status = ?, run_at = ?, last_error = ?, locked_by = NULL, updated_at = ? WHERE id = ? AND locked_by = ?`,
       { replacements: [giveUp ? 'failed' : 'pending', retryAt, outcome.error.slice(0, 500), now, id, instanceId] },
@@ -110,7 +116,7 @@ export function createScheduler(options: SchedulerOptions) {
     const stopHeartbeat = heartbeat(unfinished);
     try {
       for (const job of jobs) {
-        await runOne(job);
+        await runOne(job, now);
         unfinished.delete(job.id);
       }
     } finally {
@@ -121,16 +127,16 @@ export function createScheduler(options: SchedulerOptions) {
 
   type ClaimedJob = Awaited<ReturnType<typeof claim>>[number];
 
-  async function runOne(job: ClaimedJob) {
+  async function runOne(job: ClaimedJob, clock: Date) {
     const handler = handlers[job.kind];
     const payload = (typeof job.payload === 'string' ? JSON.parse(job.payload) : job.payload) as Record<string, unknown>;
     try {
       if (!handler) throw new Error(`no handler for job kind ${job.kind}`);
       await handler(payload);
-      await finish(job.id, { ok: true });
+      await finish(job.id, clock, { ok: true });
     } catch (error) {
       logger.error({ err: error, jobId: job.id, kind: job.kind }, 'scheduled job failed');
-      await finish(job.id, { ok: false, error: error instanceof Error ? error.message : String(error), attempts: job.attempts + 1 });
+      await finish(job.id, clock, { ok: false, error: error instanceof Error ? error.message : String(error), attempts: job.attempts + 1 });
     }
   }
 
