@@ -61,7 +61,8 @@ try {
   const testEnv: Record<string, string> = {
     ...services.env,
     NODE_ENV: 'test',
-    LOG_LEVEL: 'silent',
+    // Quiet by default; SADDLESTEP_TEST_LOG_LEVEL=error shows what a 500 hid while chasing a flaky test.
+    LOG_LEVEL: process.env.SADDLESTEP_TEST_LOG_LEVEL ?? 'silent',
     BCRYPT_COST: '10',
     // A dotted folder, as under npm start (.data/uploads), so serving files is tested the way it runs.
     UPLOAD_DIR: path.join(tmp, '.data', 'uploads'),

@@ -7,7 +7,7 @@ import { latestSubmitted } from './intakes';
  * The intake the trend starts from: the latest one submitted before the first plan was made, so
  * updated answers sent later do not move the starting point after the steps; else the latest.
  */
-async function startingIntake(riderId: number, firstPlan: Plan | undefined) {
+export async function startingIntake(riderId: number, firstPlan: Plan | undefined) {
   const before = firstPlan ? await Intake.findOne({ where: { riderId, status: 'submitted', submittedAt: { [Op.lte]: firstPlan.createdAt } }, order: [['submittedAt', 'DESC'], ['id', 'DESC']] }) : null;
   return before ?? latestSubmitted(riderId);
 }

@@ -6,7 +6,7 @@ import { conflict, notFound } from '../errors';
 import { CheckIn, Consultation, Plan, PlanStep, RiderProfile } from '../models';
 import type { AppContext } from '../context';
 import { recordAudit, type AuditActor } from './audit';
-import { latestSubmitted } from './intakes';
+import { startingIntake } from './care-views';
 import { holdRiderPlans } from './plan-holds';
 import { openSystemReferral } from './referrals';
 import { alertFitter } from './care-alerts';
@@ -18,9 +18,13 @@ function asAnalysisInput(c: { createdAt: Date; rides: number; comfort: number; n
   return { date: c.createdAt.toISOString().slice(0, 10), rides: c.rides, comfort: c.comfort, numbness: c.numbness, regions: c.pains.map((p) => ({ region: p.region, pain: p.pain })) };
 }
 
-/** The intake, as the baseline every check-in is compared with. */
-async function baselineFor(riderId: number): Promise<AnalysisCheckIn> {
-  const intake = await latestSubmitted(riderId);
+/**
+ * The intake the plan started from, as the baseline every check-in is compared with: the same
+ * starting point the trend chart draws (startingIntake), so answers updated later do not move it.
+ */
+async function baselineFor(riderId: number, consultationId: number): Promise<AnalysisCheckIn> {
+  const firstPlan = await Plan.findOne({ where: { consultationId }, order: [['id', 'ASC']] });
+  const intake = await startingIntake(riderId, firstPlan ?? undefined);
   return {
     date: (intake?.submittedAt ?? new Date()).toISOString().slice(0, 10),
     regions: (intake?.symptoms ?? []).filter((s) => s.pain !== undefined).map((s) => ({ region: s.region, pain: s.pain! })),
@@ -53,7 +57,7 @@ export async function submitCheckIn(ctx: AppContext, rider: Express.User, planId
     symptoms: form.pains.map((p) => ({ region: p.region, pain: p.pain, kind: form.numbness ? 'numb' : 'ache', timing: ['during-ride'], durationDays: 0, numbness: form.numbness, swelling: false, afterCrash: false })),
   };
   const analysis = analyseCheckIn({
-    baseline: await baselineFor(rider.id),
+    baseline: await baselineFor(rider.id, plan.consultationId),
     previous: earlier.map(asAnalysisInput),
     current,
     ...(profile?.birthYear ? { age: now.getUTCFullYear() - profile.birthYear } : {}),

@@ -32,6 +32,7 @@ const GUARDED_ROUTES: { method: Method; path: string; roles: Role[]; body?: obje
   { method: 'post', path: '/api/consultations/4294967295/payment', roles: ['rider'], body: {} },
   { method: 'post', path: '/api/consultations/4294967295/reschedule', roles: ['rider', 'fitter'], body: {} },
   { method: 'post', path: '/api/consultations/4294967295/cancel', roles: ['rider', 'fitter', 'admin'], body: {} },
+  { method: 'post', path: '/api/consultations/4294967295/no-show', roles: ['fitter'], body: {} },
   // Consultation room: case, plans, notes, measurements, follow-ups
   { method: 'post', path: '/api/consultations/4294967295/start', roles: ['fitter'] },
   { method: 'get', path: '/api/consultations/4294967295/case', roles: ['fitter'] },

@@ -71,6 +71,8 @@ export function analyseCheckIn(input: CheckInAnalysisInput): CheckInAnalysis {
 
   const lastComfort = [...chain].reverse().find((c) => c.comfort !== undefined)?.comfort;
   const comfortVsPrevious = p.current.comfort !== undefined && lastComfort !== undefined ? compareScores(lastComfort, p.current.comfort, false) : null;
+  // On the first check-in the comparison is with the starting point (the intake), not a check-in.
+  const since = p.previous.length > 0 ? 'since the last check-in' : 'since your starting point (before the plan)';
   const numbnessIsNew = p.current.numbness === true && previous.numbness !== true;
 
   const flags = screenRedFlags({ answers: p.current.redFlagAnswers ?? {}, symptoms: p.current.symptoms ?? [], age: p.age });
@@ -103,11 +105,11 @@ export function analyseCheckIn(input: CheckInAnalysisInput): CheckInAnalysis {
     decision = 'refer';
   } else if (muchWorseNow.length > 0) {
     decision = 'suggest-revert';
-    reasons.push({ code: 'much-worse-since-last-step', message: `Much worse since the last check-in (2+ points or 30 %): ${muchWorseNow.join(', ')}. Going back to the previous setup is suggested.` });
+    reasons.push({ code: 'much-worse-since-last-step', message: `Much worse ${since} (2+ points or 30 %): ${muchWorseNow.join(', ')}. Going back to the previous setup is suggested.` });
   } else {
     const hold: Reason[] = [];
     const worse = regions.filter((r) => r.painVsPrevious.category === 'worse').map((r) => r.region);
-    if (worse.length > 0) hold.push({ code: 'a-little-worse', message: `A little worse since the last check-in: ${worse.join(', ')}.` });
+    if (worse.length > 0) hold.push({ code: 'a-little-worse', message: `A little worse ${since}: ${worse.join(', ')}.` });
     const vsBase = regions.filter((r) => r.painVsBaseline.category === 'much-worse').map((r) => r.region);
     if (vsBase.length > 0) hold.push({ code: 'much-worse-than-baseline', message: `Much worse than before the plan started: ${vsBase.join(', ')}.` });
     const comfort = regions
