@@ -79,11 +79,18 @@ describe('availableSlots', () => {
 });
 
 describe('isOfferedSlot', () => {
-  const base = { availability: week(), timeZone: 'Europe/Berlin', busy: [], now: longAgo };
+  // A week before the day asked about, well inside the default 42-day booking horizon.
+  const base = { availability: week(), timeZone: 'Europe/Berlin', busy: [], now: new Date('2027-03-22T00:00:00Z') };
   it('accepts an offered start and refuses an off-grid one', () => {
     expect(isOfferedSlot(base, new Date('2027-03-29T07:00:00Z'))).toBe(true);
     expect(isOfferedSlot(base, new Date('2027-03-29T07:30:00Z'))).toBe(false);
     expect(isOfferedSlot(base, new Date('2027-03-29T06:00:00Z'))).toBe(false);
+  });
+
+  it('refuses a start past the booking horizon, even on the grid', () => {
+    expect(isOfferedSlot({ ...base, now: longAgo }, new Date('2027-03-29T07:00:00Z'))).toBe(false);
+    expect(isOfferedSlot({ ...base, availability: week({ horizonDays: 7 }) }, new Date('2027-03-29T07:00:00Z'))).toBe(true);
+    expect(isOfferedSlot({ ...base, availability: week({ horizonDays: 6 }) }, new Date('2027-03-29T07:00:00Z'))).toBe(false);
   });
 });
 
