@@ -7,11 +7,9 @@ import type { SaddlestepApp } from '@server/app';
 import { PlanStep, Referral } from '@server/models';
 import { startTestApp } from '../support/app';
 import { TEST_PASSWORD } from '../support/factories';
-import { caseOnStepOne, checkInBody, skipAdaptationDays, today } from '../support/care-factories';
+import { caseOnStepOne, checkInBody, today } from '../support/care-factories';
 import { TEST_SETUP } from '../support/plan-factories';
 import { launchBrowser, openPage, signIn, type BrowserSession } from '../support/browser';
-import { checkInReasonText, stepMarkers, trendRows } from '@/utils/check-in-trend';
-import type { CheckInTrend } from '@/api/check-ins';
 
 /*
  * The care loop in the browser: a rider's check-in and its advice, the fitter's alert on Today,
@@ -272,48 +270,5 @@ describe('check-ins, referrals and physio limits in the browser', () => {
     await rider.page.locator('[data-test="referral-answer"]').waitFor();
     await expect(rider.page.locator('[data-test="referral-answer"]').innerText()).resolves.toContain('nerve irritation has settled');
     await rider.context.close();
-  });
-});
-
-describe("the rider's next step (API, no browser)", () => {
-  it('follows the care order: plan under way, check-in due, step ready, then urgent advice over everything', async () => {
-    const c = await caseOnStepOne(saddlestep.app);
-    const next = async () => (await c.rider.get('/api/rider/home').expect(200)).body.nextAction as { kind: string; stepIndex?: number };
-    await expect(next()).resolves.toMatchObject({ kind: 'plan_under_way' });
-    await PlanStep.update({ checkInDue: today() }, { where: { planId: c.planId, stepIndex: 1 } });
-    await expect(next()).resolves.toMatchObject({ kind: 'check_in', stepIndex: 1 });
-    await c.rider.post(`/api/plans/${c.planId}/steps/1/check-ins`, checkInBody({ rides: 10 })).expect(201);
-    await skipAdaptationDays(c.planId, 2);
-    await expect(next()).resolves.toMatchObject({ kind: 'apply_step', stepIndex: 2 });
-    await c.rider.post(`/api/plans/${c.planId}/steps/1/check-ins`, checkInBody({ redFlagAnswers: { 'leg-weakness': true } })).expect(201);
-    await expect(next()).resolves.toMatchObject({ kind: 'seek_care' });
-  });
-});
-
-describe('the check-in trend (no browser)', () => {
-  const painAt = (pain: number) => [{ region: 'knee-front-left' as const, pain }];
-  const checkIn = (id: number, createdAt: string, pain: number) => ({ id, planId: 1, stepIndex: 1, createdAt, rides: 3, minutesRidden: 90, comfort: 6, pains: painAt(pain), numbness: false, note: '' });
-
-  it('orders same-day check-ins by their time and keeps the starting point and the step before them', () => {
-    // The intake was re-sent after the step: the starting point still comes first.
-    const trend: CheckInTrend = {
-      baseline: { date: '2026-03-09T18:00:00.000Z', comfort: null, pains: painAt(3) },
-      checkIns: [checkIn(2, '2026-03-09T16:00:00.000Z', 5), checkIn(1, '2026-03-09T08:00:00.000Z', 6)],
-      steps: [{ planId: 1, index: 1, appliedOn: '2026-03-09', summary: 'saddleHeight +3' }],
-    };
-    const rows = trendRows(trend);
-    expect(rows.map((r) => r.pains['knee-front-left'])).toEqual([3, 6, 5]);
-    expect(rows.map((r) => r.at)).toEqual([...rows.map((r) => r.at)].sort((a, b) => a - b));
-    const [marker] = stepMarkers(trend);
-    expect(marker!.at).toBeGreaterThan(rows[0]!.at);
-    expect(marker!.at).toBeLessThan(rows[1]!.at);
-  });
-
-  it('words a first check-in as compared with the starting point', () => {
-    const change = { reference: 3, current: 6, delta: 3, relative: 1, category: 'much-worse' as const };
-    const regions = [{ region: 'knee-front-left' as const, painVsBaseline: change, painVsPrevious: change, comfortVsBaseline: null, comfortVsPrevious: null }];
-    expect(checkInReasonText('Much worse since the last check-in (2+ points or 30 %): knee-front-left.', { regions })).toContain('since your starting point');
-    const later = [{ ...regions[0]!, painVsPrevious: { ...change, reference: 4 } }];
-    expect(checkInReasonText('Much worse since the last check-in: knee-front-left.', { regions: later })).toContain('since the last check-in');
   });
 });
