@@ -45,11 +45,17 @@ export function createScheduler(options: SchedulerOptions) {
   let timer: NodeJS.Timeout | null = null;
   let running: Promise<number> | null = null;
 
+  /**
+   * `now` decides which jobs are due (a tick may be run for a chosen time); staleness and the claim
+   * time are always the wall clock, so a tick for a later time can never take over a job another
+   * process is running right now.
+   */
   async function claim(now: Date): Promise<{ id: number; kind: string; payload: unknown; attempts: number }[]> {
+    const wallClock = new Date();
     return sequelize.transaction(async (transaction) => {
       await sequelize.query(
         "UPDATE scheduled_jobs SET status = 'pending', locked_by = NULL WHERE status = 'running' AND locked_at < ?",
-        { replacements: [new Date(now.getTime() - STALE_AFTER_MS)], transaction },
+        { replacements: [new Date(wallClock.getTime() - STALE_AFTER_MS)], transaction },
       );
       const rows = await sequelize.query<{ id: number; kind: string; payload: unknown; attempts: number }>(
         `SELECT id, kind, payload, attempts FROM scheduled_jobs WHERE status = 'pending' AND run_at <= ?${options.onlyKeys ? ' AND unique_key IN (?)' : ''} ORDER BY run_at, id LIMIT ? FOR UPDATE SKIP LOCKED`,
@@ -58,7 +64,7 @@ export function createScheduler(options: SchedulerOptions) {
       if (rows.length === 0) return [];
       await sequelize.query(
         "UPDATE scheduled_jobs SET status = 'running', locked_by = ?, locked_at = ?, attempts = attempts + 1, updated_at = ? WHERE id IN (?)",
-        { replacements: [instanceId, now, now, rows.map((r) => r.id)], transaction },
+        { replacements: [instanceId, wallClock, wallClock, rows.map((r) => r.id)], transaction },
       );
       return rows;
     });

@@ -16,6 +16,7 @@ import { latestTodayAnywhere } from '@shared/rider';
 import { recordSnapshot } from './setup-history';
 import { recordAudit, type AuditActor } from './audit';
 import { postMessage } from './chat';
+import { noticeRecipients } from './chat-notices';
 import { consultationRoom } from '../socket/rooms';
 import { scheduleCheckInJobs } from './follow-up-jobs';
 import { nextStepBlocker } from './check-ins';
@@ -44,7 +45,7 @@ async function supersedeActive(riderId: number, bikeId: number, transaction: Tra
   await Plan.update({ status: 'superseded' }, { where: { riderId, bikeId, status: { [Op.in]: ['active', 'on_hold'] } }, transaction });
 }
 
-/** Post the plan card into the consultation's chat and tell the room. */
+/** Post the plan card into the consultation's chat, tell the room, and notify readers elsewhere. */
 async function announcePlan(ctx: AppContext, consultation: Consultation, plan: Plan, senderId: number) {
   const steps = plan.plan.steps.length;
   const body = plan.kind === 'revert' ? 'A plan to go back to an earlier setup.' : `A new plan with ${steps} step${steps === 1 ? '' : 's'}.`;
@@ -52,6 +53,8 @@ async function announcePlan(ctx: AppContext, consultation: Consultation, plan: P
     const { message } = await postMessage(ctx, { id: senderId }, consultation, { clientId: randomUUID(), body, kind: 'plan', planId: plan.id });
     ctx.io?.to(consultationRoom(consultation.id)).emit('message:created', message);
   });
+  // Like any message: the unread badge moves, and a rider away from the room gets the batched e-mail.
+  if (ctx.io) await noticeRecipients(ctx, ctx.io, consultation, senderId).catch((error: unknown) => ctx.logger.error({ err: error }, 'plan card notice failed'));
 }
 
 /**

@@ -44,17 +44,18 @@ describe('admin: people and policy', () => {
   });
 
   it('saves a policy within the hard bounds and refuses one outside them', async () => {
+    // The stem-length cap: no test's plan moves the stem, so plans built in parallel are not disturbed.
     const admin = await signedInAs(saddlestep.app, 'admin');
     const current = (await admin.get('/api/admin/settings').expect(200)).body;
-    expect(current.hardBounds.stepCaps.saddleHeight).toHaveLength(2);
-    const [, max] = current.hardBounds.stepCaps.saddleHeight as [number, number];
-    const ok = { ...current.settings, planner: { ...current.settings.planner, stepCaps: { ...current.settings.planner.stepCaps, saddleHeight: 2 } } };
-    expect((await admin.put('/api/admin/settings', { settings: ok }).expect(200)).body.settings.planner.stepCaps.saddleHeight).toBe(2);
-    const tooBig = { ...ok, planner: { ...ok.planner, stepCaps: { ...ok.planner.stepCaps, saddleHeight: max + 5 } } };
+    expect(current.hardBounds.stepCaps.stemLength).toHaveLength(2);
+    const [, max] = current.hardBounds.stepCaps.stemLength as [number, number];
+    const ok = { ...current.settings, planner: { ...current.settings.planner, stepCaps: { ...current.settings.planner.stepCaps, stemLength: 5 } } };
+    expect((await admin.put('/api/admin/settings', { settings: ok }).expect(200)).body.settings.planner.stepCaps.stemLength).toBe(5);
+    const tooBig = { ...ok, planner: { ...ok.planner, stepCaps: { ...ok.planner.stepCaps, stemLength: max + 5 } } };
     const refused = await admin.put('/api/admin/settings', { settings: tooBig });
     expect(refused.status).toBe(400);
-    expect(refused.body.error.fields['planner.stepCaps.saddleHeight']).toMatch(/Allowed/);
-    expect((await admin.get('/api/admin/settings').expect(200)).body.settings.planner.stepCaps.saddleHeight).toBe(2);
+    expect(refused.body.error.fields['planner.stepCaps.stemLength']).toMatch(/Allowed/);
+    expect((await admin.get('/api/admin/settings').expect(200)).body.settings.planner.stepCaps.stemLength).toBe(5);
     // Put the default back for other tests sharing the database.
     await admin.put('/api/admin/settings', { settings: current.settings }).expect(200);
   });

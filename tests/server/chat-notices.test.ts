@@ -12,6 +12,8 @@ import { signedInAs } from '../support/factories';
 import { ask, listenOnFreePort } from '../support/sockets';
 import { bookedPair, socketFor } from '../support/chat-factories';
 import { waitForMails } from '../support/mail';
+import { caseWithBike, TEST_SETUP } from '../support/plan-factories';
+import { sendBuiltPlan } from '../support/care-factories';
 
 let saddlestep: SaddlestepApp;
 let baseUrl: string;
@@ -63,6 +65,18 @@ describe('unread notices', () => {
     ok(await ask(fitterSocket, 'message:read', { consultationId: consultation.id, seq: 2 }));
     expect(await cleared).toEqual({ consultationId: consultation.id, count: 0 });
     expect(ok(await ask<Ack<UnreadCount[]>>(otherTab, 'unread:list', {}))).toEqual([]);
+  });
+
+  it('treats a plan card like a message: the rider away from the room gets the count and the e-mail notice', async () => {
+    const c = await caseWithBike(saddlestep.app, { started: true });
+    const riderSocket = await connect(c.rider);
+    const counts: UnreadCount[] = [];
+    riderSocket.on('unread:changed', (u: UnreadCount) => counts.push(u));
+    const sent = await sendBuiltPlan(c, { ...TEST_SETUP, saddleHeight: TEST_SETUP.saddleHeight + 3 });
+    expect(sent.status, JSON.stringify(sent.body)).toBe(201);
+    await new Promise((r) => setTimeout(r, 150));
+    expect(counts).toContainEqual({ consultationId: c.consultation.id, count: 1 });
+    expect(await noticeJobsFor(c.consultation.id)).toEqual([c.rider.user.id]);
   });
 
   it('sends no e-mail notice to someone in the room', async () => {
