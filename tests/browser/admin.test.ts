@@ -113,40 +113,41 @@ describe('the Clinic screen', () => {
   it('saves a planner cap inside its hard bound and refuses one outside it', async () => {
     const { context, page } = await openPage(session.browser);
     await signInAsAdmin(page);
-    // Put the clinic back as it was afterwards: later browser tests plan with these caps.
+    // The stem-length cap: no test's plan moves the stem, so plans built in parallel are not
+    // disturbed while it changes. The clinic is put back as it was afterwards.
     const before = (await (await page.request.get('/api/admin/settings')).json()) as { settings: Record<string, unknown> };
     try {
       await page.locator('[data-test="tab-policy"]').click();
-      const cap = input(page, 'policy-cap-saddleHeight');
+      const cap = input(page, 'policy-cap-stemLength');
       await cap.waitFor();
-      await expect(page.locator('[data-test="policy-param-saddleHeight"]').innerText()).resolves.toContain('allowed 1–5 mm');
+      await expect(page.locator('[data-test="policy-param-stemLength"]').innerText()).resolves.toContain('allowed 5–10 mm');
       await expect(page.locator('[data-test="policy-bounds-note"]').innerText()).resolves.toContain('cannot be changed here');
 
       const original = Number(await cap.inputValue());
-      const next = original === 4 ? 3.5 : 4;
+      const next = original === 8 ? 7.5 : 8;
       await cap.fill(String(next));
       await cap.press('Tab');
       await page.locator('[data-test="policy-save"]').click();
       await expect(page.locator('.el-message--success').innerText()).resolves.toContain('Policy saved');
 
       await page.reload();
-      await input(page, 'policy-cap-saddleHeight').waitFor();
-      await expect(input(page, 'policy-cap-saddleHeight').inputValue()).resolves.toBe(next.toFixed(1));
+      await input(page, 'policy-cap-stemLength').waitFor();
+      await expect(input(page, 'policy-cap-stemLength').inputValue()).resolves.toBe(next.toFixed(1));
       expect(page.url()).toContain('tab=policy');
 
       // Outside the bound: not taken, with the reason beside the field, and nothing is saved.
-      await input(page, 'policy-cap-saddleHeight').fill('9');
-      await input(page, 'policy-cap-saddleHeight').press('Tab');
-      const message = page.locator('[data-test="error-planner.stepCaps.saddleHeight"]');
-      await expect(message.innerText()).resolves.toContain('9 is outside the allowed 1–5 mm');
+      await input(page, 'policy-cap-stemLength').fill('15');
+      await input(page, 'policy-cap-stemLength').press('Tab');
+      const message = page.locator('[data-test="error-planner.stepCaps.stemLength"]');
+      await expect(message.innerText()).resolves.toContain('15 is outside the allowed 5–10 mm');
       await page.locator('[data-test="policy-save"]').click();
       await expect(page.locator('[data-test="form-error"]').innerText()).resolves.toContain('outside what is allowed');
-      const stored = (await (await page.request.get('/api/admin/settings')).json()) as { settings: { planner: { stepCaps: { saddleHeight: number } } } };
-      expect(stored.settings.planner.stepCaps.saddleHeight).toBe(next);
+      const stored = (await (await page.request.get('/api/admin/settings')).json()) as { settings: { planner: { stepCaps: { stemLength: number } } } };
+      expect(stored.settings.planner.stepCaps.stemLength).toBe(next);
 
       // The server holds the same line for anyone who skips the form.
       const refused = await page.request.put('/api/admin/settings', {
-        data: { settings: { ...stored.settings, planner: { ...stored.settings.planner, stepCaps: { ...stored.settings.planner.stepCaps, saddleHeight: 9 } } } },
+        data: { settings: { ...stored.settings, planner: { ...stored.settings.planner, stepCaps: { ...stored.settings.planner.stepCaps, stemLength: 15 } } } },
         headers: await csrfHeaders(page.request),
       });
       expect(refused.status()).toBe(400);
