@@ -47,10 +47,12 @@ export function planDifferences(sentRaw: unknown, built: PlanBody): string[] {
   else built.steps.forEach((step, i) => out.push(...stepDifferences(sent.steps[i]!, step)));
   if (!sameSetup(sent.finalSetup, built.finalSetup)) out.push('it ends on a different setup');
   const limitKeys = ['windowDays', 'adaptationDays', 'adaptationRides', 'painFactor'] as const;
+  // Caps of parameters neither plan moves cannot change the plan (a clinic may adjust its stem
+  // cap while a saddle plan is previewed); the stored limits are the server's whole set anyway.
+  const moved = new Set([...sent.steps, ...built.steps].flatMap((step) => step.changes.map((c) => c.parameter)));
   const limitsMatch =
     limitKeys.every((k) => near(sent.limits[k], built.limits[k])) &&
-    sameSetup(sent.limits.stepCaps, built.limits.stepCaps) &&
-    sameSetup(sent.limits.windowCaps, built.limits.windowCaps);
+    [...moved].every((p) => near(sent.limits.stepCaps[p], built.limits.stepCaps[p]) && near(sent.limits.windowCaps[p], built.limits.windowCaps[p]));
   if (!limitsMatch) out.push('its caps or spacing differ');
   const reasonsMatch =
     sent.reasons.length === built.reasons.length &&
