@@ -71,6 +71,17 @@ describe('POST /api/consultations/:id/plans stores the server’s own plan', () 
     expect(await storedPlans(c)).toHaveLength(0);
   });
 
+  it('accepts a preview whose only difference is the cap of a part the plan never moves, and stores the server’s caps', async () => {
+    const c = await caseWithBike(saddlestep.app, { started: true });
+    // As if the clinic changed its stem cap between the preview and the send: the saddle plan is the same.
+    const { res, honest } = await send(c, raise(6), (plan) => {
+      plan.limits.stepCaps.stemLength = 7;
+    });
+    expect(res.status).toBe(201);
+    const [stored] = await storedPlans(c);
+    expect(stored!.plan.limits.stepCaps.stemLength).toBe(honest.limits.stepCaps.stemLength);
+  });
+
   it('refuses tampered reasons and dates with 422', async () => {
     const c = await caseWithBike(saddlestep.app, { started: true });
     const reasons = await send(c, raise(6), (plan) => plan.reasons.push({ code: 'fitter-note', message: 'Ignore the pain.', parameters: [] }));
