@@ -1,50 +1,25 @@
-import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
-import { randomUUID } from 'node:crypto';
-import type { Socket } from 'socket.io-client';
+import { describe, expect, it } from 'vitest';
 import type { Ack } from '@shared/http';
-import type { ChatMessage, UnreadCount } from '@shared/chat';
+import type { UnreadCount } from '@shared/chat';
 import { currentConsent } from '@shared/rider';
 import { ScheduledJob } from '@server/models';
-import type { SaddlestepApp } from '@server/app';
 import { createAppScheduler } from '@server/scheduler/app-scheduler';
-import { startTestApp } from '../support/app';
 import { signedInAs } from '../support/factories';
-import { ask, listenOnFreePort } from '../support/sockets';
-import { bookedPair, socketFor } from '../support/chat-factories';
+import { ask } from '../support/sockets';
+import { chatSuite, ok, send } from '../support/chat-suite';
+import { bookedPair } from '../support/chat-factories';
 import { waitForMails } from '../support/mail';
 import { caseWithBike, TEST_SETUP } from '../support/plan-factories';
 import { sendBuiltPlan } from '../support/care-factories';
 
-let saddlestep: SaddlestepApp;
-let baseUrl: string;
-const open: Socket[] = [];
-beforeAll(async () => {
-  saddlestep = await startTestApp();
-  baseUrl = await listenOnFreePort(saddlestep);
-});
-afterEach(() => {
-  for (const s of open.splice(0)) s.close();
-});
-afterAll(async () => {
-  await saddlestep.close();
-});
-
-async function connect(client: Parameters<typeof socketFor>[1]) {
-  const socket = await socketFor(baseUrl, client);
-  open.push(socket);
-  return socket;
-}
-function ok<T>(ack: Ack<T>): T {
-  if (ack.status !== 'OK') throw new Error(`expected OK, got ${JSON.stringify(ack)}`);
-  return ack.data;
-}
-const send = (socket: Socket, consultationId: number, body: string) => ask<Ack<ChatMessage>>(socket, 'message:send', { consultationId, clientId: randomUUID(), body });
+const suite = chatSuite();
+const connect = suite.connect;
 const noticeJobsFor = async (consultationId: number) =>
   (await ScheduledJob.findAll({ where: { kind: 'chat-notice' } })).filter((j) => (j.payload as { consultationId: number }).consultationId === consultationId).map((j) => (j.payload as { userId: number }).userId);
 
 describe('unread notices', () => {
   it('counts a fitter signed in on another page as away: a live unread count in their own room, and the e-mail notice', async () => {
-    const { rider, fitter, consultation } = await bookedPair(saddlestep.app);
+    const { rider, fitter, consultation } = await bookedPair(suite.saddlestep.app);
     const riderSocket = await connect(rider);
     ok(await ask(riderSocket, 'room:join', { consultationId: consultation.id }));
     // The fitter's socket is open (signed in, on their home page) but not in the room.
@@ -68,7 +43,7 @@ describe('unread notices', () => {
   });
 
   it('treats a plan card like a message: the rider away from the room gets the count and the e-mail notice', async () => {
-    const c = await caseWithBike(saddlestep.app, { started: true });
+    const c = await caseWithBike(suite.saddlestep.app, { started: true });
     const riderSocket = await connect(c.rider);
     const counts: UnreadCount[] = [];
     riderSocket.on('unread:changed', (u: UnreadCount) => counts.push(u));
@@ -80,7 +55,7 @@ describe('unread notices', () => {
   });
 
   it('sends no e-mail notice to someone in the room', async () => {
-    const { rider, fitter, consultation } = await bookedPair(saddlestep.app);
+    const { rider, fitter, consultation } = await bookedPair(suite.saddlestep.app);
     const riderSocket = await connect(rider);
     const fitterSocket = await connect(fitter);
     for (const s of [riderSocket, fitterSocket]) ok(await ask(s, 'room:join', { consultationId: consultation.id }));
@@ -89,8 +64,8 @@ describe('unread notices', () => {
   });
 
   it('includes a referred physio with consented access, and mails them no message text', async () => {
-    const { rider, fitter, consultation } = await bookedPair(saddlestep.app);
-    const physio = await signedInAs(saddlestep.app, 'physio');
+    const { rider, fitter, consultation } = await bookedPair(suite.saddlestep.app);
+    const physio = await signedInAs(suite.saddlestep.app, 'physio');
     const made = await fitter.post(`/api/consultations/${consultation.id}/referrals`, { urgency: 'soon', reason: 'Knee pain for a physio to see', findings: 'Ache after an hour.', attachmentIds: [], physioId: physio.user.id }).expect(201);
     const referralId = made.body.referral.id as number;
     await rider.post(`/api/rider/referrals/${referralId}/consent`, { version: currentConsent('share-with-physio')!.version, agreed: true }).expect(200);
@@ -103,7 +78,7 @@ describe('unread notices', () => {
     const jobs = await ScheduledJob.findAll({ where: { kind: 'chat-notice' } });
     const mine = jobs.filter((j) => (j.payload as { consultationId: number }).consultationId === consultation.id);
     await ScheduledJob.update({ runAt: new Date(Date.now() - 1000) }, { where: { id: mine.map((j) => j.id) } });
-    await createAppScheduler(saddlestep.ctx).tick();
+    await createAppScheduler(suite.saddlestep.ctx).tick();
     const mails = await waitForMails(physio.user.email, { subject: /New messages/ });
     expect(mails).toHaveLength(1);
     expect(`${mails[0]!.text} ${mails[0]!.html}`).not.toMatch(/knee|inwards/);

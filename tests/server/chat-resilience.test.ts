@@ -1,43 +1,19 @@
-import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { randomUUID } from 'node:crypto';
-import type { Socket } from 'socket.io-client';
 import type { Ack } from '@shared/http';
-import type { ChatMessage, RoomState } from '@shared/chat';
+import type { ChatMessage } from '@shared/chat';
 import { Message } from '@server/models';
-import type { SaddlestepApp } from '@server/app';
 import { consultationRoom } from '@server/socket/rooms';
-import { startTestApp } from '../support/app';
-import { ask, listenOnFreePort } from '../support/sockets';
-import { bookedPair, socketFor } from '../support/chat-factories';
+import { ask } from '../support/sockets';
+import { chatSuite, join, ok } from '../support/chat-suite';
+import { bookedPair } from '../support/chat-factories';
 
-let saddlestep: SaddlestepApp;
-let baseUrl: string;
-const open: Socket[] = [];
-beforeAll(async () => {
-  saddlestep = await startTestApp();
-  baseUrl = await listenOnFreePort(saddlestep);
-});
-afterEach(() => {
-  for (const s of open.splice(0)) s.close();
-});
-afterAll(async () => {
-  await saddlestep.close();
-});
-
-async function connect(client: Parameters<typeof socketFor>[1]) {
-  const socket = await socketFor(baseUrl, client);
-  open.push(socket);
-  return socket;
-}
-function ok<T>(ack: Ack<T>): T {
-  if (ack.status !== 'OK') throw new Error(`expected OK, got ${JSON.stringify(ack)}`);
-  return ack.data;
-}
-const join = (socket: Socket, consultationId: number, afterSeq = 0) => ask<Ack<RoomState>>(socket, 'room:join', { consultationId, afterSeq });
+const suite = chatSuite();
+const connect = suite.connect;
 
 describe('a transport dropped mid-send', () => {
   it('loses nothing and doubles nothing after the server drops the room mid-send and the client reconnects and resends', async () => {
-    const { rider, fitter, consultation } = await bookedPair(saddlestep.app);
+    const { rider, fitter, consultation } = await bookedPair(suite.saddlestep.app);
     const riderSocket = await connect(rider);
     const fitterSocket = await connect(fitter);
     ok(await join(riderSocket, consultation.id));
@@ -49,7 +25,7 @@ describe('a transport dropped mid-send', () => {
     const outbox = Array.from({ length: 10 }, (_, i) => ({ clientId: randomUUID(), body: `m${i}` }));
     const acked = new Set<string>();
     const inFlight = outbox.map((m) => ask<Ack<ChatMessage>>(riderSocket, 'message:send', { consultationId: consultation.id, ...m }, 2000).then((a) => a.status === 'OK' && acked.add(m.clientId), () => false));
-    saddlestep.io.in(consultationRoom(consultation.id)).disconnectSockets(true);
+    suite.saddlestep.io.in(consultationRoom(consultation.id)).disconnectSockets(true);
     await Promise.all(inFlight);
     expect(riderSocket.connected).toBe(false);
 
@@ -70,7 +46,7 @@ describe('a transport dropped mid-send', () => {
   });
 
   it('resends after the client\'s own transport closes under a pending send', async () => {
-    const { rider, consultation } = await bookedPair(saddlestep.app);
+    const { rider, consultation } = await bookedPair(suite.saddlestep.app);
     const socket = await connect(rider);
     ok(await join(socket, consultation.id));
     const clientId = randomUUID();
@@ -99,7 +75,7 @@ describe('malformed payloads on every event', () => {
   });
 
   it('answers each with a typed validation ERROR ack and keeps the socket up', async () => {
-    const { rider, consultation } = await bookedPair(saddlestep.app);
+    const { rider, consultation } = await bookedPair(suite.saddlestep.app);
     const socket = await connect(rider);
     ok(await join(socket, consultation.id));
     for (const [event, payloads] of Object.entries(shapes(consultation.id))) {
@@ -116,13 +92,13 @@ describe('malformed payloads on every event', () => {
   });
 
   it('answers typing for a room the socket has not joined with not_found', async () => {
-    const { rider, consultation } = await bookedPair(saddlestep.app);
+    const { rider, consultation } = await bookedPair(suite.saddlestep.app);
     const socket = await connect(rider);
     expect(await ask(socket, 'typing:set', { consultationId: consultation.id, typing: true })).toMatchObject({ status: 'ERROR', errors: { code: 'not_found' } });
   });
 
   it('survives an event with no acknowledgement callback', async () => {
-    const { rider, consultation } = await bookedPair(saddlestep.app);
+    const { rider, consultation } = await bookedPair(suite.saddlestep.app);
     const socket = await connect(rider);
     socket.emit('room:join', { nonsense: true });
     socket.emit('message:read');
@@ -133,7 +109,7 @@ describe('malformed payloads on every event', () => {
 
 describe('attachments', () => {
   it('refuses an attachment sent by the fitter (only the rider adds photos and clips)', async () => {
-    const { fitter, consultation } = await bookedPair(saddlestep.app);
+    const { fitter, consultation } = await bookedPair(suite.saddlestep.app);
     const socket = await connect(fitter);
     ok(await join(socket, consultation.id));
     const ack = await ask<Ack<unknown>>(socket, 'message:send', { consultationId: consultation.id, clientId: randomUUID(), body: 'see this', attachmentId: 1 });

@@ -1,51 +1,25 @@
-import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { randomUUID } from 'node:crypto';
-import type { Socket } from 'socket.io-client';
 import type { Ack } from '@shared/http';
-import type { ChatMessage, RoomState } from '@shared/chat';
+import type { ChatMessage } from '@shared/chat';
 import { Message, ScheduledJob } from '@server/models';
-import type { SaddlestepApp } from '@server/app';
 import { createAppScheduler } from '@server/scheduler/app-scheduler';
-import { startTestApp } from '../support/app';
 import { signedInAs } from '../support/factories';
-import { ask, listenOnFreePort } from '../support/sockets';
-import { bookedPair, socketFor } from '../support/chat-factories';
+import { ask } from '../support/sockets';
+import { chatSuite, join, ok, send } from '../support/chat-suite';
+import { bookedPair } from '../support/chat-factories';
 import { waitForMails } from '../support/mail';
 
-let saddlestep: SaddlestepApp;
-let baseUrl: string;
-const open: Socket[] = [];
-beforeAll(async () => {
-  saddlestep = await startTestApp({ CHAT_BURST: '10', CHAT_PER_SECOND: '1' });
-  baseUrl = await listenOnFreePort(saddlestep);
-});
-afterEach(() => {
-  for (const s of open.splice(0)) s.close();
-});
-afterAll(async () => {
-  await saddlestep.close();
-});
+const suite = chatSuite({ CHAT_BURST: '10', CHAT_PER_SECOND: '1' });
+const connect = suite.connect;
 
-async function connect(client: Parameters<typeof socketFor>[1]) {
-  const socket = await socketFor(baseUrl, client);
-  open.push(socket);
-  return socket;
-}
 
-const join = (socket: Socket, consultationId: number, afterSeq = 0) => ask<Ack<RoomState>>(socket, 'room:join', { consultationId, afterSeq });
-const send = (socket: Socket, consultationId: number, body: string, clientId: string = randomUUID()) =>
-  ask<Ack<ChatMessage>>(socket, 'message:send', { consultationId, clientId, body });
-
-function ok<T>(ack: Ack<T>): T {
-  if (ack.status !== 'OK') throw new Error(`expected OK, got ${JSON.stringify(ack)}`);
-  return ack.data;
-}
 
 describe('joining and sending', () => {
   it('refuses an unrelated rider and a fitter who is not assigned', async () => {
-    const { consultation } = await bookedPair(saddlestep.app);
+    const { consultation } = await bookedPair(suite.saddlestep.app);
     for (const role of ['rider', 'fitter', 'physio', 'admin'] as const) {
-      const stranger = await connect(await signedInAs(saddlestep.app, role));
+      const stranger = await connect(await signedInAs(suite.saddlestep.app, role));
       const ack = await join(stranger, consultation.id);
       expect(ack).toEqual({ status: 'ERROR', errors: { code: 'not_found', message: 'That consultation was not found.' } });
       const sent = await send(stranger, consultation.id, 'hello');
@@ -55,12 +29,12 @@ describe('joining and sending', () => {
   });
 
   it('refuses a consultation that is only held, not paid', async () => {
-    const { rider, consultation } = await bookedPair(saddlestep.app, 'requested');
+    const { rider, consultation } = await bookedPair(suite.saddlestep.app, 'requested');
     expect((await join(await connect(rider), consultation.id)).status).toBe('ERROR');
   });
 
   it('stores the message before it acknowledges it, and the other side receives it', async () => {
-    const { rider, fitter, consultation } = await bookedPair(saddlestep.app);
+    const { rider, fitter, consultation } = await bookedPair(suite.saddlestep.app);
     const riderSocket = await connect(rider);
     const fitterSocket = await connect(fitter);
     ok(await join(riderSocket, consultation.id));
@@ -74,7 +48,7 @@ describe('joining and sending', () => {
   });
 
   it('keeps an HTML payload as plain text', async () => {
-    const { rider, consultation } = await bookedPair(saddlestep.app);
+    const { rider, consultation } = await bookedPair(suite.saddlestep.app);
     const socket = await connect(rider);
     ok(await join(socket, consultation.id));
     const body = '<img src=x onerror="alert(1)">';
@@ -84,7 +58,7 @@ describe('joining and sending', () => {
 
 describe('nothing lost, nothing doubled', () => {
   it('does not store a resent client id twice, even when both sends race', async () => {
-    const { rider, consultation } = await bookedPair(saddlestep.app);
+    const { rider, consultation } = await bookedPair(suite.saddlestep.app);
     const socket = await connect(rider);
     ok(await join(socket, consultation.id));
     const clientId = randomUUID();
@@ -94,7 +68,7 @@ describe('nothing lost, nothing doubled', () => {
   });
 
   it('catches up after a forced disconnect mid-send without losing or doubling anything', async () => {
-    const { rider, fitter, consultation } = await bookedPair(saddlestep.app);
+    const { rider, fitter, consultation } = await bookedPair(suite.saddlestep.app);
     const fitterSocket = await connect(fitter);
     const seen = new Map<number, ChatMessage>();
     const first = ok(await join(fitterSocket, consultation.id));
@@ -130,7 +104,7 @@ describe('nothing lost, nothing doubled', () => {
 
 describe('ordering', () => {
   it('gives gap-free sequence numbers and the same order to everyone with three senders at once', async () => {
-    const { rider, fitter, consultation } = await bookedPair(saddlestep.app);
+    const { rider, fitter, consultation } = await bookedPair(suite.saddlestep.app);
     const senders = [await connect(rider), await connect(rider), await connect(fitter)];
     for (const s of senders) ok(await join(s, consultation.id));
     const received: number[][] = senders.map(() => []);
@@ -155,7 +129,7 @@ describe('ordering', () => {
 
 describe('limits and bad payloads', () => {
   it('rate-limits a flood and keeps the socket up', async () => {
-    const { rider, consultation } = await bookedPair(saddlestep.app);
+    const { rider, consultation } = await bookedPair(suite.saddlestep.app);
     const socket = await connect(rider);
     ok(await join(socket, consultation.id));
     const acks = await Promise.all(Array.from({ length: 14 }, (_, i) => send(socket, consultation.id, `flood ${i}`)));
@@ -166,7 +140,7 @@ describe('limits and bad payloads', () => {
   });
 
   it('answers malformed payloads with an ERROR ack and stays connected', async () => {
-    const { rider, consultation } = await bookedPair(saddlestep.app);
+    const { rider, consultation } = await bookedPair(suite.saddlestep.app);
     const socket = await connect(rider);
     ok(await join(socket, consultation.id));
     const bad: unknown[] = [
@@ -194,7 +168,7 @@ describe('limits and bad payloads', () => {
   });
 
   it('refuses a send to a room the socket has not joined', async () => {
-    const { rider, consultation } = await bookedPair(saddlestep.app);
+    const { rider, consultation } = await bookedPair(suite.saddlestep.app);
     const ack = await send(await connect(rider), consultation.id, 'sneaky');
     expect(ack.status).toBe('ERROR');
   });
@@ -202,7 +176,7 @@ describe('limits and bad payloads', () => {
 
 describe('states, typing, presence and history', () => {
   it('moves messages from sent to delivered to read', async () => {
-    const { rider, fitter, consultation } = await bookedPair(saddlestep.app);
+    const { rider, fitter, consultation } = await bookedPair(suite.saddlestep.app);
     const riderSocket = await connect(rider);
     const fitterSocket = await connect(fitter);
     ok(await join(riderSocket, consultation.id));
@@ -221,7 +195,7 @@ describe('states, typing, presence and history', () => {
   });
 
   it('shows presence and a typing indicator that switches itself off', async () => {
-    const { rider, fitter, consultation } = await bookedPair(saddlestep.app);
+    const { rider, fitter, consultation } = await bookedPair(suite.saddlestep.app);
     const riderSocket = await connect(rider);
     ok(await join(riderSocket, consultation.id));
     const presence = new Promise<{ online: number[] }>((resolve) => riderSocket.on('presence:changed', (p) => p.online.length === 2 && resolve(p)));
@@ -238,7 +212,7 @@ describe('states, typing, presence and history', () => {
   }, 15_000);
 
   it('pages back through history', async () => {
-    const { rider, consultation } = await bookedPair(saddlestep.app);
+    const { rider, consultation } = await bookedPair(suite.saddlestep.app);
     const socket = await connect(rider);
     ok(await join(socket, consultation.id));
     for (let i = 1; i <= 7; i += 1) ok(await send(socket, consultation.id, `m${i}`));
@@ -250,7 +224,7 @@ describe('states, typing, presence and history', () => {
 
 describe('offline notice by e-mail', () => {
   it('mails an offline fitter once per batch, with no message text', async () => {
-    const { rider, fitter, consultation } = await bookedPair(saddlestep.app);
+    const { rider, fitter, consultation } = await bookedPair(suite.saddlestep.app);
     const socket = await connect(rider);
     ok(await join(socket, consultation.id));
     for (const body of ['my knee hurts', 'second', 'third']) ok(await send(socket, consultation.id, body));
@@ -258,7 +232,7 @@ describe('offline notice by e-mail', () => {
     const mine = jobs.filter((j) => (j.payload as { consultationId: number }).consultationId === consultation.id);
     expect(mine).toHaveLength(1);
     await ScheduledJob.update({ runAt: new Date(Date.now() - 1000) }, { where: { id: mine[0]!.id } });
-    await createAppScheduler(saddlestep.ctx).tick();
+    await createAppScheduler(suite.saddlestep.ctx).tick();
     const mails = await waitForMails(fitter.user.email, { subject: /New messages/ });
     expect(mails).toHaveLength(1);
     expect(`${mails[0]!.text} ${mails[0]!.html}`).not.toMatch(/knee|second|third/);
