@@ -264,12 +264,15 @@ describe('the step planner, for any input', () => {
   });
 
   it('exercises one-step reverts and plans that wait for an earlier change', () => {
+    // A check on the generator, not a property: reverts that pass the refusal rules are rare, so a
+    // fixed seed and more runs keep it from failing on an unlucky draw (it failed about 1 run in 6).
+    const runs = { numRuns: Math.max(RUNS.numRuns, 2000), seed: 20261202 };
     const seen = { revert: 0, waited: 0 };
     fc.assert(fc.property(inputArb, (input) => {
       const plan = buildPlan(input);
       if (plan.steps[0]?.kind === 'revert') seen.revert++;
       if (plan.steps[0] && plan.steps[0].earliestDate > input.startDate) seen.waited++;
-    }), RUNS);
+    }), runs);
     expect(seen.revert).toBeGreaterThan(0);
     expect(seen.waited).toBeGreaterThan(0);
   }, 60_000);
