@@ -26,6 +26,11 @@ const envSchema = z.object({
   /** Only for the local Stripe fake: http://127.0.0.1:PORT */
   STRIPE_API_BASE: z.string().url().optional(),
   STRIPE_WEBHOOK_SECRET: z.string().optional(),
+  /**
+   * Stripe's publishable key (pk_live_… or pk_test_…). With it the checkout shows Stripe's own card
+   * field; without it development shows the test-card chooser and production cannot take cards.
+   */
+  STRIPE_PUBLISHABLE_KEY: z.string().regex(/^pk_(test|live)_\w+$/, 'STRIPE_PUBLISHABLE_KEY must start with pk_test_ or pk_live_').optional(),
   /** Folder for uploaded files; never inside the web root. */
   UPLOAD_DIR: z.string().default('.data/uploads'),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
@@ -39,7 +44,17 @@ const envSchema = z.object({
   CHAT_PER_SECOND: z.coerce.number().min(0.1).max(100_000).default(2),
   /** Where the built client lives; empty disables static serving (API-only tests). */
   CLIENT_DIST: z.string().default('dist'),
-});
+})
+  .superRefine((env, issues) => {
+    const publishable = env.STRIPE_PUBLISHABLE_KEY;
+    if (!publishable) return;
+    // A card tokenised with one Stripe account (or mode) cannot be charged by another.
+    if (!env.STRIPE_SECRET_KEY) {
+      issues.addIssue({ code: 'custom', path: ['STRIPE_PUBLISHABLE_KEY'], message: 'set STRIPE_SECRET_KEY too; the card field needs the server to charge the card' });
+    } else if (publishable.startsWith('pk_live_') !== /^[sr]k_live_/.test(env.STRIPE_SECRET_KEY)) {
+      issues.addIssue({ code: 'custom', path: ['STRIPE_PUBLISHABLE_KEY'], message: 'the publishable and secret keys must both be live keys or both be test keys' });
+    }
+  });
 
 export type Config = z.infer<typeof envSchema>;
 

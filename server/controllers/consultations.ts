@@ -2,7 +2,8 @@ import type { RequestHandler } from 'express';
 import type { z } from 'zod';
 import { Op } from 'sequelize';
 import type { cancelSchema, holdSlotSchema, paymentSchema, rescheduleSchema } from '@shared/booking';
-import { describeRefundPolicy, NO_SHOW_REFUND_SHARE, TEST_CARDS } from '@shared/booking';
+import { describeRefundPolicy, NO_SHOW_REFUND_SHARE } from '@shared/booking';
+import { cardEntryFor } from '../payments/card-entry';
 import { notFound } from '../errors';
 import { parseId } from '../middleware/validate';
 import { Consultation, Payment, User } from '../models';
@@ -100,11 +101,10 @@ export function createConsultationController(ctx: AppContext) {
     res.json({ consultation: await present(result.consultation), refund: result.decision });
   };
 
-  /** The development-only card chooser; production takes real card details through Stripe. */
-  const testCards: RequestHandler = (_req, res) => {
-    if (ctx.config.NODE_ENV === 'production') throw notFound('That API route');
-    res.json({ cards: TEST_CARDS });
+  /** How the checkout takes cards: Stripe's card field, the development test cards, or none. */
+  const cardEntry: RequestHandler = (_req, res) => {
+    res.json(cardEntryFor(ctx.config, ctx.stripe !== null));
   };
 
-  return { hold, list, show, terms, pay, move, cancel, noShow, testCards };
+  return { hold, list, show, terms, pay, move, cancel, noShow, cardEntry };
 }

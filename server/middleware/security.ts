@@ -6,23 +6,38 @@ import type { ApiErrorBody } from '@shared/http';
 import type { Config } from '../config';
 
 /**
+ * Where Stripe.js loads from and talks to, per Stripe's published CSP guidance
+ * (docs.stripe.com/security/guide#content-security-policy): its script, its card field's frames,
+ * its API for tokens, and the card brand icons.
+ */
+const STRIPE_JS_SOURCES = {
+  script: ['https://js.stripe.com', 'https://*.js.stripe.com'],
+  frame: ['https://js.stripe.com', 'https://*.js.stripe.com', 'https://hooks.stripe.com'],
+  connect: ['https://api.stripe.com'],
+  img: ['https://*.stripe.com'],
+};
+
+/**
  * Security headers. The CSP allows only our own origin: the built app loads nothing from
- * anywhere else (a browser test proves it). Element Plus sets inline styles, hence 'unsafe-inline'
- * for styles only.
+ * anywhere else (a browser test proves it). The one exception is Stripe.js, and only when a
+ * publishable key is set, because Stripe requires its card field to load from its own origin.
+ * Element Plus sets inline styles, hence 'unsafe-inline' for styles only.
  */
 export function securityHeaders(config: Config): RequestHandler {
   const production = config.NODE_ENV === 'production';
+  const stripe = config.STRIPE_PUBLISHABLE_KEY ? STRIPE_JS_SOURCES : { script: [], frame: [], connect: [], img: [] };
   return helmet({
     contentSecurityPolicy: {
       useDefaults: false,
       directives: {
         defaultSrc: ["'self'"],
-        scriptSrc: ["'self'"],
+        scriptSrc: ["'self'", ...stripe.script],
         styleSrc: ["'self'", "'unsafe-inline'"],
-        imgSrc: ["'self'", 'data:', 'blob:'],
+        imgSrc: ["'self'", 'data:', 'blob:', ...stripe.img],
         mediaSrc: ["'self'", 'blob:'],
         fontSrc: ["'self'", 'data:'],
-        connectSrc: ["'self'"],
+        connectSrc: ["'self'", ...stripe.connect],
+        frameSrc: stripe.frame.length > 0 ? stripe.frame : ["'self'"],
         objectSrc: ["'none'"],
         frameAncestors: ["'none'"],
         baseUri: ["'self'"],

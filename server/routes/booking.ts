@@ -16,7 +16,7 @@ export function createBookingRouter(ctx: AppContext): Router {
   router.get('/fitter/settings', requireRole('fitter'), fitters.ownSettings);
   router.put('/fitter/settings', requireRole('fitter'), validateBody(fitterSettingsSchema), fitters.saveSettings);
 
-  router.get('/payments/test-cards', requireRole('rider'), consultations.testCards);
+  router.get('/payments/card-entry', requireRole('rider'), consultations.cardEntry);
   router.post('/consultations', requireRole('rider'), validateBody(holdSlotSchema), consultations.hold);
   router.get('/consultations', requireRole('rider', 'fitter'), consultations.list);
   router.get('/consultations/:id', requireRole('rider', 'fitter', 'physio'), consultations.show);

@@ -34,6 +34,20 @@ export const TEST_CARDS = [
 ] as const;
 
 /**
+ * How this server takes cards, so the checkout page shows the right thing:
+ * - `stripe_card`: Stripe's own card field (Stripe.js, served from js.stripe.com), which turns the
+ *   card into a one-time token in the browser; the card number never reaches our server;
+ * - `test_cards`: the development-only chooser of Stripe test tokens (local Stripe fake);
+ * - `none`: payments are not set up on this server.
+ */
+export const cardEntrySchema = z.discriminatedUnion('method', [
+  z.object({ method: z.literal('stripe_card'), publishableKey: z.string().regex(/^pk_(test|live)_\w+$/) }),
+  z.object({ method: z.literal('test_cards'), cards: z.array(z.object({ token: z.string(), label: z.string() })) }),
+  z.object({ method: z.literal('none') }),
+]);
+export type CardEntry = z.infer<typeof cardEntrySchema>;
+
+/**
  * An admin's refund. `idempotencyKey` is the client's UUID for this attempt (made when Refund is
  * first pressed, kept for retries): the same key always means the same single refund. Optional so
  * older clients still work, but then only the payment lock guards against a double refund.

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { CONSULTATION_STATES } from '@shared/consultation';
-import { ApiError, http } from './http';
+import { cardEntrySchema, type CardEntry } from '@shared/booking';
+import { http } from './http';
 
 const partySchema = z.object({ id: z.number(), displayName: z.string(), timeZone: z.string() });
 
@@ -45,8 +46,7 @@ const readinessSchema = z.object({
 });
 export type BookingReadiness = z.infer<typeof readinessSchema>;
 
-const testCardSchema = z.object({ token: z.string(), label: z.string() });
-export type TestCard = z.infer<typeof testCardSchema>;
+export type TestCard = Extract<CardEntry, { method: 'test_cards' }>['cards'][number];
 
 export const consultationsApi = {
   readiness: () => http.get('/api/rider/booking-readiness', readinessSchema),
@@ -88,13 +88,6 @@ export const consultationsApi = {
   async noShow(id: number): Promise<ConsultationView> {
     return (await http.post(`/api/consultations/${id}/no-show`, {}, envelope)).consultation;
   },
-  /** Development only: the server answers 404 in production, where real card entry takes over. */
-  async testCards(): Promise<TestCard[] | null> {
-    try {
-      return (await http.get('/api/payments/test-cards', z.object({ cards: z.array(testCardSchema) }))).cards;
-    } catch (caught) {
-      if (caught instanceof ApiError && caught.status === 404) return null;
-      throw caught;
-    }
-  },
+  /** How this server takes cards: Stripe's card field, the development test cards, or not at all. */
+  cardEntry: () => http.get('/api/payments/card-entry', cardEntrySchema),
 };

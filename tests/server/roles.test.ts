@@ -24,7 +24,7 @@ const GUARDED_ROUTES: { method: Method; path: string; roles: Role[]; body?: obje
   { method: 'get', path: '/api/fitters/4294967295/slots?from=2030-01-01&to=2030-01-02', roles: ['rider', 'fitter'] },
   { method: 'get', path: '/api/fitter/settings', roles: ['fitter'] },
   { method: 'put', path: '/api/fitter/settings', roles: ['fitter'], body: {} },
-  { method: 'get', path: '/api/payments/test-cards', roles: ['rider'] },
+  { method: 'get', path: '/api/payments/card-entry', roles: ['rider'] },
   { method: 'post', path: '/api/consultations', roles: ['rider'], body: {} },
   { method: 'get', path: '/api/consultations', roles: ['rider', 'fitter'] },
   { method: 'get', path: '/api/consultations/4294967295', roles: ['rider', 'fitter', 'physio'] },
