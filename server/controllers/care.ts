@@ -5,7 +5,7 @@ import { notFound } from '../errors';
 import { parseId } from '../middleware/validate';
 import { Consultation, Plan, PlanStep, Referral, User } from '../models';
 import type { AppContext } from '../context';
-import { presentCheckIn } from '../presenters/care';
+import { presentCheckIn, withoutClinicalText } from '../presenters/care';
 import { presentPlan } from '../presenters/plan';
 import { actorFromRequest, recordAudit } from '../services/audit';
 import { reviewCheckIn, submitCheckIn } from '../services/check-ins';
@@ -98,10 +98,14 @@ export function createCareController(ctx: AppContext) {
 
   const inbox: RequestHandler = async (req, res) => {
     const rows = await physioInbox(req.user!);
-    // Each listed referral shows reasons and findings: one read row per rider's referral.
+    // Each listed referral shows reasons and findings (one read row per rider's referral), except
+    // those this physio declined, which show no health details and so are not a read.
     const actor = actorFromRequest(req);
-    for (const row of rows) await recordAudit(actor, { action: 'referral.read', subjectType: 'referral', subjectId: row.id, subjectUserId: row.riderId });
-    res.json({ referrals: await presentReferrals(rows) });
+    for (const row of rows) {
+      if (row.status !== 'declined') await recordAudit(actor, { action: 'referral.read', subjectType: 'referral', subjectId: row.id, subjectUserId: row.riderId });
+    }
+    const presented = await presentReferrals(rows);
+    res.json({ referrals: presented.map((r) => (r.status === 'declined' ? withoutClinicalText(r) : r)) });
   };
 
   const physioAction = (action: 'receive' | 'accept' | 'start'): RequestHandler => async (req, res) => {
@@ -113,7 +117,7 @@ export function createCareController(ctx: AppContext) {
   const decline: RequestHandler = async (req, res) => {
     const { note } = req.body as z.output<typeof declineReferralSchema>;
     const referral = await declineReferral(ctx, req.user!, id(req.params.id, 'That referral'), note, actorFromRequest(req));
-    res.json({ referral: (await presentReferrals([referral]))[0] });
+    res.json({ referral: withoutClinicalText((await presentReferrals([referral]))[0]!) });
   };
 
   const respond: RequestHandler = async (req, res) => {

@@ -48,3 +48,12 @@ export function presentReferral(r: Referral, names: Map<number, string>, consent
     consent,
   };
 }
+
+/**
+ * A referral as the physio who declined it sees it: who, when and their own note, but not the
+ * fitter's reason, findings or attachments. Declining ends their part in the rider's care, so
+ * they keep no health details (the rider agreed to share with a physio who takes the case).
+ */
+export function withoutClinicalText<T extends ReturnType<typeof presentReferral>>(referral: T): T {
+  return { ...referral, reason: '', findings: '', attachmentIds: [] };
+}

@@ -60,13 +60,14 @@ export async function buildMatrixCase(app: SaddlestepApp['app']) {
 
   for (const who of STATE_PHYSIOS) {
     const other = await extraConsultation(c.rider.user.id, c.fitter.user.id);
-    // The declined physio keeps the declined referral in their list, so its reason is not the case's marker.
-    const id = await refer(other.id, clients[who], who === 'declined' ? 'A referral this physio declined' : marker);
+    // The declined physio keeps the declined referral in their list, but none of its health details.
+    const id = await refer(other.id, clients[who], marker);
     ids.own[who] = id;
     if (who === 'awaiting') continue;
     await c.rider.post(`/api/rider/referrals/${id}/consent`, { version, agreed: true }).expect(200);
     if (who === 'declined') {
-      await clients.declined.post(`/api/physio/referrals/${id}/decline`, { note: 'Outside my practice.' }).expect(200);
+      const declined = await clients.declined.post(`/api/physio/referrals/${id}/decline`, { note: 'Outside my practice.' }).expect(200);
+      if (JSON.stringify(declined.body).includes(marker)) throw new Error('the decline answer still carries the referral reason');
     } else {
       await clients.withdrawn.post(`/api/physio/referrals/${id}/accept`).expect(200);
       const consent = (await Consent.findOne({ where: { scopeType: 'referral', scopeId: id } }))!;
