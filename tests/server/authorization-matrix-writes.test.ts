@@ -10,6 +10,8 @@ import { startTestApp } from '../support/app';
 import { checkInBody, skipAdaptationDays, today } from '../support/care-factories';
 import { TEST_PASSWORD } from '../support/factories';
 import { TEST_SETUP } from '../support/plan-factories';
+import { bikeBody } from '../support/rider-factories';
+import { calmIntake } from '../support/booking-factories';
 import { buildMatrixCase, expectNoLeak, WHO, type MatrixCase, type Who } from '../support/matrix-case';
 
 /**
@@ -114,6 +116,20 @@ describe('health-data writes, by relation to the case', () => {
     await row((w) => as(w).put('/api/rider/intake/draft', { symptoms: [] }), { ...RIDER_ONLY(200, 200) });
     await row((w) => as(w).patch(`/api/rider/bikes/${ids().bike}`, { name: 'Renamed' }), RIDER_ONLY(404, 200));
     await row((w) => as(w).post(`/api/rider/bikes/${ids().bike}/snapshots`, { unit: 'mm', setup: TEST_SETUP, cleatNotes: '', takenOn: today() }), RIDER_ONLY(404, 201));
+  });
+  it('start a session', async () => {
+    const booked = await extraConsultation();
+    await booked.update({ status: 'booked' });
+    await row((w) => as(w).post(`/api/consultations/${booked.id}/start`), FITTER_ONLY(200));
+  });
+  it('own-data: bike read and retire, intake submit and photo upload only for the rider who owns them', async () => {
+    await row((w) => as(w).get(`/api/rider/bikes/${ids().bike}`), RIDER_ONLY(404, 200));
+    const spareBike = (await as('owner').post('/api/rider/bikes', bikeBody()).expect(201)).body.bike.id as number;
+    await row((w) => as(w).delete(`/api/rider/bikes/${spareBike}`), RIDER_ONLY(404, 204));
+    // Each rider submits their own intake (the case's own rider last, so refusals come first).
+    await row((w) => as(w).post('/api/rider/intake/submit', calmIntake()), RIDER_ONLY(201, 201));
+    const png = await sharp({ create: { width: 30, height: 20, channels: 3, background: '#654' } }).png().toBuffer();
+    await row((w) => as(w).agent.post('/api/rider/uploads').set('X-CSRF-Token', as(w).csrfToken).field('view', 'front').attach('file', png, 'front.png'), RIDER_ONLY(201, 201));
   });
   it('delete the account: staff refused; the rider’s own, last', () =>
     row((w) => as(w).agent.delete('/api/rider/account').set('X-CSRF-Token', as(w).csrfToken).send({ password: TEST_PASSWORD, confirm: 'DELETE' }), { ...cells(204, 403, 403, 403, 403, 403, 403), riderX: undefined }));
