@@ -9,6 +9,7 @@ import { REFUND_JOB, executeRefund } from '../services/refund-jobs';
 import { createScheduler } from './scheduler';
 import { CHAT_NOTICE, sendChatNotice } from '../services/chat-notices';
 import { REFERRAL_ESCALATE, escalateReferral } from '../services/referral-notices';
+import { REFERRAL_ESCALATION_MAIL, sendEscalationMail } from '../services/referral-escalation-mail';
 import { CHECKIN_DUE, CHECKIN_OVERDUE, CHECKIN_OVERDUE_MAIL, markCheckInOverdue, remindCheckIn, sendOverdueMail } from '../services/follow-up-jobs';
 
 /**
@@ -28,6 +29,7 @@ export function createAppScheduler(ctx: AppContext, options: { sequelize?: Seque
       /** Never for a cancelled or moved booking: the job re-reads the booking when it runs. */
       [CHAT_NOTICE]: (payload) => sendChatNotice(ctx, payload),
       [REFERRAL_ESCALATE]: (payload) => escalateReferral(ctx, payload),
+      [REFERRAL_ESCALATION_MAIL]: (payload) => sendEscalationMail(ctx, payload),
       [CHECKIN_DUE]: (payload) => remindCheckIn(ctx, payload),
       [CHECKIN_OVERDUE]: (payload) => markCheckInOverdue(ctx, payload),
       [CHECKIN_OVERDUE_MAIL]: (payload) => sendOverdueMail(ctx, payload),

@@ -5,6 +5,7 @@ import { scheduleJob } from '../scheduler/jobs';
 import { renderMail } from '../mail/layout';
 import { publicUrl } from '../mail/booking-mails';
 import { userRoom } from '../socket/rooms';
+import { REFERRAL_ESCALATION_MAIL, type EscalationKind } from './referral-escalation-mail';
 
 /** Job kind for every timed referral follow-up (escalations and the consent notice); `stage` says which. */
 export const REFERRAL_ESCALATE = 'referral-escalate';
@@ -101,31 +102,21 @@ export async function escalateReferral(ctx: AppContext, payload: Record<string, 
   }
 }
 
-const when = (date: Date | null) => `${date?.toISOString().slice(0, 16).replace('T', ' ') ?? 'earlier'} UTC`;
-
 /**
- * Flag an overdue referral (no health details): the physio gets their referral, the referring
- * fitter the case's room (to chase or choose what next), and admins the people list with both
- * names, since the clinic screen has no referral view yet.
+ * Flag an overdue referral: mark it, and queue one e-mail job per person (the physio, the
+ * referring fitter, every active admin) in the same transaction. A failing mail server then
+ * retries only that person's e-mail, and a re-run of this job queues nothing new (the keys are
+ * per referral, stage and person).
  */
-async function sendEscalation(ctx: AppContext, referral: Referral, kind: 'unaccepted' | 'unanswered') {
-  await referral.update({ escalatedAt: new Date() });
-  const people = await User.findAll({ where: { [Op.or]: [{ id: [referral.physioId ?? 0, referral.fitterId] }, { role: 'admin', status: 'active' }] } });
-  const physio = people.find((u) => u.id === referral.physioId);
-  const fitter = people.find((u) => u.id === referral.fitterId);
-  const subject = kind === 'unaccepted' ? `Overdue ${referral.urgency} referral` : `Unanswered ${referral.urgency} referral`;
-  const fact = kind === 'unaccepted'
-    ? `A ${referral.urgency} referral sent ${when(referral.sentAt)} has not been accepted or declined yet.`
-    : `A ${referral.urgency} referral accepted ${when(referral.acceptedAt)} has no response from the physiotherapist yet.`;
-  for (const user of people) {
-    const base = publicUrl(ctx);
-    const link = user.id === referral.physioId
-      ? { label: 'Open the referral', url: `${base}/physio/referrals/${referral.id}` }
-      : user.id === referral.fitterId
-        ? { label: 'Open the case', url: `${base}/consultations/${referral.consultationId}/room` }
-        : { label: 'Open the people list', url: `${base}/admin?tab=people` };
-    const names = user.role === 'admin' ? [`Physiotherapist: ${physio?.displayName ?? 'not assigned'}. Referring fitter: ${fitter?.displayName ?? 'unknown'}.`] : [];
-    const mail = renderMail({ subject, paragraphs: [`Hello ${user.displayName},`, fact, ...names], action: link });
-    await ctx.mailer.send({ to: user.email, ...mail });
-  }
+async function sendEscalation(ctx: AppContext, referral: Referral, kind: EscalationKind) {
+  const people = await User.findAll({ attributes: ['id'], where: { [Op.or]: [{ id: [referral.physioId ?? 0, referral.fitterId] }, { role: 'admin', status: 'active' }] } });
+  await ctx.sequelize.transaction(async (transaction) => {
+    await referral.update({ escalatedAt: new Date() }, { transaction });
+    for (const user of people) {
+      await scheduleJob(
+        { kind: REFERRAL_ESCALATION_MAIL, uniqueKey: `${REFERRAL_ESCALATION_MAIL}:${kind}:${referral.id}:${user.id}`, runAt: new Date(), payload: { referralId: referral.id, kind, userId: user.id } },
+        { transaction },
+      );
+    }
+  });
 }

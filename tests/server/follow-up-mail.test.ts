@@ -1,7 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createServer } from 'node:net';
 import { Op } from 'sequelize';
-import { PlanStep, ScheduledJob } from '@server/models';
+import { currentConsent } from '@shared/rider';
+import { PlanStep, Referral, ScheduledJob } from '@server/models';
 import type { SaddlestepApp } from '@server/app';
 import { createAppScheduler } from '@server/scheduler/app-scheduler';
 import { createMailer } from '@server/mail/mailer';
@@ -79,4 +80,61 @@ describe('overdue check-in e-mails', () => {
     expect(await ScheduledJob.findOne({ where: { uniqueKey: mailKey('rider') } })).toMatchObject({ status: 'done', attempts: 1 });
     expect(await ScheduledJob.findOne({ where: { uniqueKey: mailKey('fitter') } })).toMatchObject({ status: 'done', attempts: 2 });
   }, 90_000);
+});
+
+describe('overdue referral e-mails', () => {
+  it('queues one e-mail per person, so a failing physio e-mail is retried without mailing the fitter again', async () => {
+    const c = await caseOnStepOne(saddlestep.app);
+    const created = await c.fitter.post(`/api/consultations/${c.consultation.id}/referrals`, { urgency: 'soon', reason: 'Knee worse', findings: '', attachmentIds: [], physioId: c.physio.user.id }).expect(201);
+    const id = created.body.referral.id as number;
+    const escalateKey = `referral-escalate:${id}`;
+    const mailKey = (userId: number) => `referral-escalation-mail:unaccepted:${id}:${userId}`;
+    // Out of other files' reach before consent queues the real check (scheduling keeps the first job).
+    await ScheduledJob.create({ kind: 'referral-escalate', uniqueKey: escalateKey, runAt: NOT_YET, payload: { referralId: id }, status: 'pending', lockedBy: null, lockedAt: null, lastError: null, doneAt: null });
+    for (const userId of [c.physio.user.id, c.fitter.user.id]) {
+      await ScheduledJob.create({ kind: 'referral-escalation-mail', uniqueKey: mailKey(userId), runAt: NOT_YET, payload: { referralId: id, kind: 'unaccepted', userId }, status: 'pending', lockedBy: null, lockedAt: null, lastError: null, doneAt: null });
+    }
+    await c.rider.post(`/api/rider/referrals/${id}/consent`, { version: currentConsent('share-with-physio')!.version, agreed: true }).expect(200);
+
+    const keys = [escalateKey, mailKey(c.physio.user.id), mailKey(c.fitter.user.id)];
+    const dead = createMailer({ SMTP_URL: `smtp://127.0.0.1:${await closedPort()}`, MAIL_FROM: saddlestep.ctx.config.MAIL_FROM }, saddlestep.logger);
+    const working = createAppScheduler(saddlestep.ctx, { onlyKeys: keys });
+    const broken = createAppScheduler({ ...saddlestep.ctx, mailer: dead }, { onlyKeys: keys });
+    try {
+      // The escalation marks the referral and sends nothing itself (the mail server is down).
+      await makeDue(escalateKey);
+      await broken.tick(CLOCK);
+      expect((await Referral.findByPk(id))!.escalatedAt).not.toBeNull();
+      expect(await ScheduledJob.findOne({ where: { uniqueKey: escalateKey } })).toMatchObject({ status: 'done' });
+
+      await makeDue(mailKey(c.fitter.user.id));
+      await working.tick(CLOCK);
+      await makeDue(mailKey(c.physio.user.id));
+      await broken.tick(CLOCK);
+      expect(await ScheduledJob.findOne({ where: { uniqueKey: mailKey(c.physio.user.id) } })).toMatchObject({ status: 'pending', attempts: 1 });
+
+      // Mail is back: the physio's job and the escalation (as if re-run after a crash) are due again.
+      await makeDue(mailKey(c.physio.user.id));
+      await makeDue(escalateKey);
+      await working.tick(CLOCK);
+    } finally {
+      dead.close();
+    }
+    expect(await waitForMails(c.physio.user.email, { subject: /Overdue soon referral/, count: 2, timeoutMs: 1500 })).toHaveLength(1);
+    expect(await waitForMails(c.fitter.user.email, { subject: /Overdue soon referral/, count: 2, timeoutMs: 1500 })).toHaveLength(1);
+    expect(await ScheduledJob.findOne({ where: { uniqueKey: mailKey(c.fitter.user.id) } })).toMatchObject({ status: 'done', attempts: 1 });
+  }, 90_000);
+
+  it('sends nothing once the physio has accepted in the meantime', async () => {
+    const c = await caseOnStepOne(saddlestep.app);
+    const created = await c.fitter.post(`/api/consultations/${c.consultation.id}/referrals`, { urgency: 'soon', reason: 'Knee worse', findings: '', attachmentIds: [], physioId: c.physio.user.id }).expect(201);
+    const id = created.body.referral.id as number;
+    const mailKey = `referral-escalation-mail:unaccepted:${id}:${c.physio.user.id}`;
+    await ScheduledJob.create({ kind: 'referral-escalation-mail', uniqueKey: mailKey, runAt: DUE, payload: { referralId: id, kind: 'unaccepted', userId: c.physio.user.id }, status: 'pending', lockedBy: null, lockedAt: null, lastError: null, doneAt: null });
+    await c.rider.post(`/api/rider/referrals/${id}/consent`, { version: currentConsent('share-with-physio')!.version, agreed: true }).expect(200);
+    await c.physio.post(`/api/physio/referrals/${id}/accept`).expect(200);
+    await createAppScheduler(saddlestep.ctx, { onlyKeys: [mailKey] }).tick(CLOCK);
+    expect(await ScheduledJob.findOne({ where: { uniqueKey: mailKey } })).toMatchObject({ status: 'done' });
+    expect(await waitForMails(c.physio.user.email, { subject: /Overdue/, timeoutMs: 800 })).toHaveLength(0);
+  }, 60_000);
 });
