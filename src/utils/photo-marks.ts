@@ -1,7 +1,7 @@
 import type { PhotoMeasurementInput, PixelPoint } from '@shared/fit/photo';
 
 /** The points of shared/fit/photo's `photoPointsSchema`, in the order a fitter usually marks them. */
-export const POINT_NAMES = ['hip', 'knee', 'ankle', 'kneeFront', 'spindle', 'shoulder', 'toe'] as const;
+export const POINT_NAMES = ['hip', 'knee', 'ankle', 'kneeFront', 'spindle', 'shoulder', 'toe', 'bottomBracket'] as const;
 export type PointName = (typeof POINT_NAMES)[number];
 export type MarkName = PointName | 'scaleFrom' | 'scaleTo';
 export type Marks = Partial<Record<MarkName, PixelPoint>>;
@@ -23,6 +23,7 @@ export const MARK_INFO: Record<MarkName, MarkInfo> = {
   spindle: { label: 'Pedal spindle', landmark: 'centre of the pedal axle, cranks level', test: 'spindle' },
   shoulder: { label: 'Shoulder', landmark: 'acromion; optional, for the hip angle', test: 'shoulder', optional: true },
   toe: { label: 'Foot', landmark: 'fifth metatarsal head; optional, for the ankle angle', test: 'toe', optional: true },
+  bottomBracket: { label: 'Bottom bracket', landmark: 'centre of the crank axle; optional, checks the cranks are level', test: 'bottom-bracket', optional: true },
   scaleFrom: { label: 'Scale start', landmark: 'one end of the known length', test: 'scale-from' },
   scaleTo: { label: 'Scale end', landmark: 'the other end of the known length', test: 'scale-to' },
 };

@@ -96,6 +96,17 @@ describe('the session room in the browser', () => {
     await page.keyboard.press('Shift+ArrowRight');
     await expect.poll(async () => Number.parseFloat(await shown.innerText())).not.toBe(value);
 
+    // Knee front and pedal spindle come next in the marking order; the optional bottom bracket,
+    // marked well below the spindle's level, shows the crank-level warning (cranks not level).
+    await photo.click({ position: at(0.62, 0.5) });
+    await photo.click({ position: at(0.6, 0.8) });
+    await page.locator('[data-test="handle-spindle"]').waitFor();
+    expect(await page.locator('[data-test="crank-level-warning"]').count()).toBe(0);
+    await page.locator('[data-test="mark-bottom-bracket"]').click();
+    await photo.click({ position: at(0.45, 0.95) });
+    await page.locator('[data-test="crank-line"]').waitFor();
+    await expect(page.locator('[data-test="crank-level-warning"]').innerText()).resolves.toMatch(/from level/);
+
     await page.locator('[data-test="save-measurement"]').click();
     await page.locator('[data-test="measurement-saved"]').waitFor();
     const nudged = await shown.innerText();

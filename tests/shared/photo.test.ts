@@ -5,6 +5,7 @@ import { FitInputError } from '@shared/fit/errors';
 import {
   dynamicToStaticKneeFlexion,
   includedAngle,
+  isCrankLevelWarning,
   ISO_5775_WHEEL_SIZES,
   measurePhoto,
   parseTyreSize,
@@ -129,6 +130,8 @@ describe('the knee-to-spindle offset', () => {
     // 170 px of crank rising 100 px: atan(100/170) ≈ 30°.
     const tilted = measurePhoto({ facing: 'right', points: { ...points, bottomBracket: { x: 330, y: 700 } }, scale });
     expect(tilted.notes.join(' ')).toMatch(/crank is 30° from level/);
+    expect(tilted.notes.filter(isCrankLevelWarning)).toHaveLength(1);
+    expect(level.notes.filter(isCrankLevelWarning)).toHaveLength(0);
     expect(() => measurePhoto({ facing: 'right', points: { ...points, bottomBracket: points.spindle }, scale })).toThrow(/coincide/);
   });
 

@@ -4,7 +4,7 @@
  */
 export { includedAngle, type AngleWithSensitivity } from './geometry';
 export { ISO_5775_WHEEL_SIZES, parseTyreSize, SECTION_HEIGHT_FACTOR_RANGE, type TyreSize, type WheelSize } from './iso5775';
-export { KOPS_NOTE, measurePhoto } from './measure';
+export { CRANK_LEVEL_TOLERANCE_DEG, isCrankLevelWarning, KOPS_NOTE, measurePhoto } from './measure';
 export { photoScale, type PhotoScale } from './scale';
 export {
   photoMeasurementInputSchema,

@@ -26,6 +26,13 @@ export const KOPS_NOTE =
  */
 export const CRANK_LEVEL_TOLERANCE_DEG = 5;
 
+const CRANK_WARNING_START = 'The crank is ';
+
+/** Whether a note of `measurePhoto` is the crank-level warning (the screen shows it as a warning). */
+export function isCrankLevelWarning(note: string): boolean {
+  return note.startsWith(CRANK_WARNING_START);
+}
+
 /** A warning when the crank (bottom bracket → spindle) is off level by more than the tolerance, or null. */
 function crankLevelWarning(bottomBracket: PixelPoint, spindle: PixelPoint): string | null {
   requireApart(['bottomBracket', 'spindle'], bottomBracket, spindle);
@@ -33,7 +40,7 @@ function crankLevelWarning(bottomBracket: PixelPoint, spindle: PixelPoint): stri
   const dy = Math.abs(spindle.y - bottomBracket.y);
   const offLevel = (Math.atan2(dy, dx) * 180) / Math.PI;
   if (offLevel <= CRANK_LEVEL_TOLERANCE_DEG) return null;
-  return `The crank is ${offLevel.toFixed(0)}° from level, more than ${CRANK_LEVEL_TOLERANCE_DEG}°: the knee-to-spindle offset assumes level cranks, so re-take the photo with the cranks at 3 and 9 o'clock.`;
+  return `${CRANK_WARNING_START}${offLevel.toFixed(0)}° from level, more than ${CRANK_LEVEL_TOLERANCE_DEG}°: the knee-to-spindle offset assumes level cranks, so re-take the photo with the cranks at 3 and 9 o'clock.`;
 }
 
 const round = (v: ValueWithUncertainty): ValueWithUncertainty => ({
@@ -90,10 +97,11 @@ export function measurePhoto(input: PhotoMeasurementInput): PhotoMeasurement {
     notes.push(
       'Offset taken with the cranks level; positive means the front of the knee is ahead of the pedal spindle.',
     );
-    const warning = bottomBracket ? crankLevelWarning(bottomBracket, spindle) : null;
-    if (warning) notes.push(warning);
   }
   if (kneeFront && spindle && !s) notes.push('Mark a known length to turn the knee-to-spindle offset into millimetres.');
+  // The offset (scaled or not yet) is only meaningful with level cranks, so warn as soon as it is marked.
+  const crankWarning = kneeFront && spindle && bottomBracket ? crankLevelWarning(bottomBracket, spindle) : null;
+  if (crankWarning) notes.push(crankWarning);
 
   if (!kneeFlexion && !hipAngle && !ankleAngle && !thighMm && !shankMm && !kneeToSpindleMm && !scale) {
     throw new FitInputError('points', 'Mark at least hip, knee and ankle, or the knee front and the pedal spindle.');
