@@ -23,6 +23,12 @@ export class Refund extends Model<InferAttributes<Refund>, InferCreationAttribut
   declare lastError: CreationOptional<string | null>;
   declare settledAt: CreationOptional<Date | null>;
   declare noticeSentAt: CreationOptional<Date | null>;
+  /** How many times Stripe was asked for this refund. */
+  declare attempts: CreationOptional<number>;
+  /** How many times an admin pressed Try again; after one, Stripe is asked what it made before sending again. */
+  declare adminRetries: CreationOptional<number>;
+  /** The last Try again's attempt id (a client UUID): the same id again re-queues nothing. */
+  declare retryKey: CreationOptional<string | null>;
   declare createdAt: CreationOptional<Date>;
 
   static initModel(sequelize: Sequelize): typeof Refund {
@@ -40,6 +46,9 @@ export class Refund extends Model<InferAttributes<Refund>, InferCreationAttribut
         lastError: { type: DataTypes.STRING(300), allowNull: true },
         settledAt: { type: DataTypes.DATE, allowNull: true },
         noticeSentAt: { type: DataTypes.DATE, allowNull: true },
+        attempts: { type: DataTypes.INTEGER.UNSIGNED, allowNull: false, defaultValue: 0 },
+        adminRetries: { type: DataTypes.INTEGER.UNSIGNED, allowNull: false, defaultValue: 0 },
+        retryKey: { type: DataTypes.STRING(36), allowNull: true },
         createdAt: DataTypes.DATE,
       },
       { sequelize, tableName: 'refunds', updatedAt: false },

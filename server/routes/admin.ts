@@ -1,16 +1,18 @@
 import { Router } from 'express';
-import { deleteAccountSchema, updateUserSchema } from '@shared/admin';
+import { deleteAccountSchema, refundRetrySchema, updateUserSchema } from '@shared/admin';
 import { requireRole } from '../middleware/require-role';
 import { validateBody } from '../middleware/validate';
 import type { AppContext } from '../context';
 import type { PasswordHasher } from '../services/passwords';
 import { createAdminController } from '../controllers/admin';
+import { createAdminRefundsController } from '../controllers/admin-refunds';
 import { createPrivacyController } from '../controllers/privacy';
 
 /** The clinic's admin pages, and the rider's own export and deletion. */
 export function createAdminRouter(ctx: AppContext, hasher: PasswordHasher): Router {
   const router = Router();
   const admin = createAdminController(ctx);
+  const refunds = createAdminRefundsController(ctx);
   const privacy = createPrivacyController(ctx, hasher);
   const isAdmin = requireRole('admin');
 
@@ -20,6 +22,8 @@ export function createAdminRouter(ctx: AppContext, hasher: PasswordHasher): Rout
   router.put('/admin/settings', isAdmin, admin.saveSettings);
   router.get('/admin/payments', isAdmin, admin.payments);
   router.post('/admin/payments/:id/refund', isAdmin, admin.refund);
+  router.get('/admin/refunds/attention', isAdmin, refunds.attention);
+  router.post('/admin/refunds/:id/retry', isAdmin, validateBody(refundRetrySchema), refunds.retry);
   router.get('/admin/audit', isAdmin, admin.audit);
 
   router.get('/rider/export', requireRole('rider'), privacy.exportData);

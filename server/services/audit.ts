@@ -33,7 +33,7 @@ export function actorFromRequest(req: Pick<Request, 'user' | 'ip' | 'headers'>):
  * or a physio's decision is dropped here whatever a caller passes. Add a key only if it is not
  * about the rider's body.
  */
-const DETAIL_KEYS = new Set(['draftId', 'snapshotId', 'stepIndex', 'appliedOn', 'count', 'kind', 'view', 'variant', 'fields', 'source', 'version', 'amountMinor', 'cancelledBy', 'role', 'status']);
+const DETAIL_KEYS = new Set(['draftId', 'snapshotId', 'stepIndex', 'appliedOn', 'count', 'kind', 'view', 'variant', 'fields', 'source', 'version', 'amountMinor', 'cancelledBy', 'role', 'status', 'refundId']);
 
 /** `detail` reduced to the allowed keys with plain values; null when nothing is left. */
 export function auditDetail(detail: Record<string, unknown> | undefined): Record<string, unknown> | null {

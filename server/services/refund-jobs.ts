@@ -8,6 +8,8 @@ import { inTransaction } from './db-retry';
 import { sendCancellation, sendRefundNotice } from '../mail/booking-mails';
 
 export const REFUND_JOB = 'refund';
+/** The one scheduled job of a refund row. */
+export const refundJobKey = (refundId: number) => `refund:${refundId}`;
 
 /** What is left to refund: the payment minus every refund already promised (pending) or made. */
 export async function refundableLeft(payment: Payment, transaction: Transaction): Promise<number> {
@@ -33,8 +35,24 @@ export async function recordRefundRequest(
     { paymentId: input.payment.id, idempotencyKey: input.idempotencyKey, stripeRefundId: null, amountMinor, reason: input.reason.slice(0, 300), actorId: input.actorId, status: 'pending', notice: input.notice },
     { transaction },
   );
-  await scheduleJob({ kind: REFUND_JOB, uniqueKey: `refund:${refund.id}`, runAt: new Date(), payload: { refundId: refund.id } }, { transaction });
+  await scheduleJob({ kind: REFUND_JOB, uniqueKey: refundJobKey(refund.id), runAt: new Date(), payload: { refundId: refund.id } }, { transaction });
   return refund;
+}
+
+/**
+ * The Stripe idempotency key of a refund, from the refund's own key (which names its cause): every
+ * try of one refund row, the admin's Try again included, sends the same key.
+ */
+function stripeRefundKey(refund: Pick<Refund, 'idempotencyKey'>): string {
+  return `refund-${refund.idempotencyKey}`;
+}
+
+/** A refund Stripe already made for our row (our refunds carry `metadata.refundId`), if any. */
+async function findMadeRefund(stripe: Stripe, chargeId: string, refundId: number): Promise<Stripe.Refund | null> {
+  for await (const made of stripe.refunds.list({ charge: chargeId, limit: 100 })) {
+    if (made.metadata?.refundId === String(refundId) && made.status !== 'failed' && made.status !== 'canceled') return made;
+  }
+  return null;
 }
 
 /** Stripe said no for good (bad request, charge already refunded…): retrying would not help. */
@@ -56,10 +74,16 @@ export async function executeRefund(ctx: AppContext, refundId: number): Promise<
     if (!ctx.stripe) throw new Error('Stripe is not configured; refund stays pending');
     let stripeRefundId: string;
     try {
-      const made = await ctx.stripe.refunds.create(
-        { charge: payment.stripeChargeId, amount: refund.amountMinor, metadata: { paymentId: String(payment.id), refundId: String(refund.id) } },
-        { idempotencyKey: `refund-${refund.idempotencyKey}` },
-      );
+      // Stripe forgets an idempotency key after 24 h, and an admin's Try again may come later than
+      // that: an earlier try whose answer was lost would then be made twice, so look first.
+      const earlier = refund.adminRetries > 0 ? await findMadeRefund(ctx.stripe, payment.stripeChargeId, refund.id) : null;
+      if (!earlier) await Refund.increment('attempts', { where: { id: refund.id } });
+      const made =
+        earlier ??
+        (await ctx.stripe.refunds.create(
+          { charge: payment.stripeChargeId, amount: refund.amountMinor, metadata: { paymentId: String(payment.id), refundId: String(refund.id) } },
+          { idempotencyKey: stripeRefundKey(refund) },
+        ));
       stripeRefundId = made.id;
     } catch (error) {
       const message = error instanceof Error ? error.message : String(error);
@@ -93,7 +117,9 @@ async function settle(ctx: AppContext, refundId: number, outcome: { stripeRefund
       await refund.update({ status: 'failed', lastError: outcome.failed.slice(0, 300), settledAt: new Date() }, { transaction });
       return;
     }
-    await refund.update({ status: 'succeeded', stripeRefundId: outcome.stripeRefundId, lastError: null, settledAt: new Date() }, { transaction });
+    // A pending row with a notice already sent is a refused refund an admin retried: the rider was
+    // told it failed, so the news that it went through is owed (sendNoticeOnce claims it again).
+    await refund.update({ status: 'succeeded', stripeRefundId: outcome.stripeRefundId, lastError: null, settledAt: new Date(), noticeSentAt: null }, { transaction });
     if (!payment) return;
     // Counted from our rows, never added twice: a charge.refunded webhook may already have raised it.
     const made = (await Refund.sum('amountMinor', { where: { paymentId: payment.id, status: 'succeeded' }, transaction })) ?? 0;

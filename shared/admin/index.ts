@@ -35,3 +35,5 @@ export const deleteAccountSchema = z.strictObject({
   password: z.string({ error: 'Enter your password to confirm.' }).min(1, 'Enter your password to confirm.').max(128),
   confirm: z.literal('DELETE', { error: 'Type DELETE to confirm.' }),
 });
+
+export * from './refunds';

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { publicUserSchema, ROLES, type AccountDecision, type PublicUser, type Role } from '@shared/auth';
+import { attentionRefundListSchema, refundRetryResultSchema, type RefundRetryResult } from '@shared/admin';
 import { clinicSettingsSchema, type ClinicSettings, type ClinicSettingsInput } from '@shared/clinic';
 import { SETUP_PARAMETERS } from '@shared/fit/setup';
 import { http } from './http';
@@ -122,6 +123,16 @@ export const adminApi = {
   async refund(id: number, body: { amountMinor: number; reason: string; idempotencyKey: string }): Promise<{ payment: RefundedPayment; pending: boolean }> {
     const answer = await http.post(`/api/admin/payments/${id}/refund`, body, z.object({ payment: refundedPaymentSchema, refund: z.object({ status: z.string() }).optional() }));
     return { payment: answer.payment, pending: answer.refund?.status === 'pending' };
+  },
+
+  /** Refunds Stripe refused, or that no retry is sending any more ("Refunds that need you"). */
+  refundsNeedingAttention: () => http.get('/api/admin/refunds/attention', attentionRefundListSchema),
+  /**
+   * Try a stuck refund again. `attemptKey` is one UUID per press, reused after a lost answer, so the
+   * refund is re-queued once. Answers with the refund's state after the immediate try.
+   */
+  async retryRefund(id: number, attemptKey: string): Promise<RefundRetryResult['refund']> {
+    return (await http.post(`/api/admin/refunds/${id}/retry`, { attemptKey }, refundRetryResultSchema)).refund;
   },
 
   audit: (q: AuditQuery) => http.get(`/api/admin/audit${query({ ...q })}`, auditPageSchema),

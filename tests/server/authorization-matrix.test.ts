@@ -105,7 +105,7 @@ const ownData: { path: string; roles: string[]; shows?: Who[] }[] = [
   { path: '/api/fitter/follow-ups', roles: ['fitter'] },
   { path: '/api/fitter/settings', roles: ['fitter'] },
   { path: '/api/physio/referrals', roles: ['physio'], shows: ['referred'] },
-  ...['/api/admin/home', '/api/admin/users', '/api/admin/accounts/pending', '/api/admin/payments', '/api/admin/settings', '/api/admin/audit?limit=200'].map((path) => ({ path, roles: ['admin'] })),
+  ...['/api/admin/home', '/api/admin/users', '/api/admin/accounts/pending', '/api/admin/payments', '/api/admin/refunds/attention', '/api/admin/settings', '/api/admin/audit?limit=200'].map((path) => ({ path, roles: ['admin'] })),
   { path: '/api/auth/me', roles: ['rider', 'fitter', 'physio', 'admin'] },
 ];
 
