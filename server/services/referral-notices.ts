@@ -24,7 +24,7 @@ export const ESCALATE_AFTER_HOURS = { urgent: 4, soon: 48, routine: 24 * 7 } as 
  */
 export const ANSWER_AFTER_HOURS = { urgent: 24, soon: 5 * 24, routine: 14 * 24 } as const;
 
-type Stage = 'unaccepted' | 'unanswered' | 'consent-notice';
+type Stage = 'unaccepted' | 'unanswered' | 'consent-notice' | 'consent-overdue';
 const HOUR = 3_600_000;
 
 function schedule(referral: Referral, stage: Stage, key: string, runAt: Date, transaction?: Transaction, extra: Record<string, unknown> = {}) {
@@ -39,11 +39,14 @@ export async function scheduleReferralEscalation(referral: Referral, transaction
 
 /**
  * A referral the system opened (urgent red flag) waits for the rider's agreement: tell the rider
- * once. The job's unique key makes a second urgent flag on the same referral add nothing; the job
- * re-reads the referral and stays silent if it is no longer waiting for consent.
+ * once, and if it still waits after the urgent acceptance window, tell the fitter and the clinic,
+ * who can reach the rider by other means (nothing goes to a physio before the rider agrees). The
+ * jobs' unique keys make a second urgent flag on the same referral add nothing; each job re-reads
+ * the referral and stays silent if it is no longer waiting for consent.
  */
-export function scheduleConsentNotice(referral: Referral, transaction: Transaction) {
-  return schedule(referral, 'consent-notice', 'consent-notice', new Date(), transaction);
+export async function scheduleConsentNotice(referral: Referral, transaction: Transaction) {
+  await schedule(referral, 'consent-notice', 'consent-notice', new Date(), transaction);
+  await schedule(referral, 'consent-overdue', 'consent-overdue', new Date(Date.now() + ESCALATE_AFTER_HOURS[referral.urgency] * HOUR), transaction);
 }
 
 type ReferralEvent = 'consent-needed' | 'sent' | 'accepted' | 'declined' | 'responded' | 'hold' | 'hold-cleared';
@@ -88,6 +91,8 @@ export async function escalateReferral(ctx: AppContext, payload: Record<string, 
   const awaitingAnswer = ['accepted', 'in_progress'].includes(referral.status);
   if (stage === 'consent-notice') {
     if (referral.status === 'awaiting_consent') await notifyReferral(ctx, referral, 'consent-needed');
+  } else if (stage === 'consent-overdue') {
+    if (referral.status === 'awaiting_consent') await sendEscalation(ctx, referral, 'unconsented');
   } else if (stage === 'unaccepted') {
     if (['sent', 'received'].includes(referral.status)) {
       await sendEscalation(ctx, referral, 'unaccepted');
@@ -109,7 +114,9 @@ export async function escalateReferral(ctx: AppContext, payload: Record<string, 
  * per referral, stage and person).
  */
 async function sendEscalation(ctx: AppContext, referral: Referral, kind: EscalationKind) {
-  const people = await User.findAll({ attributes: ['id'], where: { [Op.or]: [{ id: [referral.physioId ?? 0, referral.fitterId] }, { role: 'admin', status: 'active' }] } });
+  // Before the rider agrees, the physio must not even learn there is a case.
+  const physioId = kind === 'unconsented' ? 0 : (referral.physioId ?? 0);
+  const people = await User.findAll({ attributes: ['id'], where: { [Op.or]: [{ id: [physioId, referral.fitterId] }, { role: 'admin', status: 'active' }] } });
   await ctx.sequelize.transaction(async (transaction) => {
     await referral.update({ escalatedAt: new Date() }, { transaction });
     for (const user of people) {

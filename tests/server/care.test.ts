@@ -247,6 +247,25 @@ describe('referral to a physio', () => {
     expect((await mailsTo(c.rider.user.email)).filter((m) => /suggests a physiotherapist/.test(m.subject))).toHaveLength(1);
   });
 
+  it('tells the fitter and the clinic when an urgent referral still waits for the rider after the urgent window', async () => {
+    const c = await caseOnStepOne(saddlestep.app);
+    const admin = await signedInAs(saddlestep.app, 'admin');
+    const first = await c.rider.post(`/api/plans/${c.planId}/steps/1/check-ins`, checkInBody({ redFlagAnswers: { 'saddle-numbness-persists': true } })).expect(201);
+    const id = first.body.outcome.referralId as number;
+    const overdue = (await ScheduledJob.findOne({ where: { uniqueKey: `referral-escalate:consent-overdue:${id}` } }))!;
+    // Four hours (the urgent window) later than now, give or take the test's own run time.
+    expect(overdue.runAt.getTime() - Date.now()).toBeGreaterThan(3.9 * 3_600_000);
+    await overdue.update({ runAt: new Date(Date.now() - 1000) });
+    await createAppScheduler(saddlestep.ctx).tick();
+    const [mail] = await waitForMails(c.fitter.user.email, { subject: /Urgent referral waiting for the rider/ });
+    expect(mail!.text).toContain(`/consultations/${c.consultation.id}/room`);
+    expect(mail!.text).toMatch(/contact the rider/);
+    expect(mail!.text).not.toMatch(/saddle numbness|warning signs|red flag|knee/i);
+    expect(await waitForMails(admin.user.email, { subject: /waiting for the rider/ })).toHaveLength(1);
+    expect((await mailsTo(c.physio.user.email)).filter((m) => /waiting for the rider/.test(m.subject))).toHaveLength(0);
+    expect((await Referral.findByPk(id))!.escalatedAt).not.toBeNull();
+  });
+
   it('refuses bad referral input and strangers', async () => {
     const c = await caseOnStepOne(saddlestep.app);
     for (const body of [{}, { urgency: 'whenever', reason: 'x' }, { urgency: 'soon', reason: '' }, { urgency: 'soon', reason: '<b>x</b>' }, { urgency: 'soon', reason: 'x', attachmentIds: [999999] }]) {
