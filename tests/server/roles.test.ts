@@ -74,6 +74,8 @@ const GUARDED_ROUTES: { method: Method; path: string; roles: Role[]; body?: obje
   { method: 'get', path: '/api/admin/settings', roles: ['admin'] },
   { method: 'put', path: '/api/admin/settings', roles: ['admin'], body: {} },
   { method: 'get', path: '/api/admin/payments', roles: ['admin'] },
+  { method: 'get', path: '/api/admin/refunds/attention', roles: ['admin'] },
+  { method: 'post', path: '/api/admin/refunds/4294967295/retry', roles: ['admin'], body: {} },
   { method: 'post', path: '/api/admin/payments/4294967295/refund', roles: ['admin'], body: {} },
   { method: 'get', path: '/api/admin/audit', roles: ['admin'] },
   { method: 'delete', path: '/api/rider/account', roles: ['rider'] },
