@@ -32,6 +32,10 @@ export async function startLocalServices(options: {
   log: (line: string) => void;
 }): Promise<LocalServices> {
   const { dataDir, ports, databaseName, given, log } = options;
+  if (given.STRIPE_PUBLISHABLE_KEY && !given.STRIPE_SECRET_KEY) {
+    // Stripe's real card field makes tokens the local Stripe fake has never heard of.
+    throw new Error('STRIPE_PUBLISHABLE_KEY is set without STRIPE_SECRET_KEY: set both (from the same Stripe account), or neither to use the local Stripe fake and its test cards.');
+  }
   const secrets = loadLocalSecrets(dataDir);
   const env: Record<string, string> = {};
   const started: { stop: () => Promise<void> }[] = [];
