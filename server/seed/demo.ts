@@ -4,6 +4,7 @@ import { DEMO_PASSWORD, DEMO_PEOPLE } from './demo-people';
 import { seedDemoRiders } from './demo-riders';
 import { seedDemoFitting } from './demo-fitting';
 import { seedDemoCare } from './demo-care';
+import { seedDemoPayments } from './demo-payments';
 import type { AppContext } from '../context';
 
 /**
@@ -19,5 +20,6 @@ export async function seedDemo(ctx: AppContext, hasher: PasswordHasher): Promise
   await seedDemoRiders();
   await seedDemoFitting(ctx);
   await seedDemoCare();
+  await seedDemoPayments(ctx);
   return { created };
 }
