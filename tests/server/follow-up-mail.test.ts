@@ -36,6 +36,11 @@ const DUE = new Date('2100-01-01T00:00:00Z');
 const CLOCK = new Date('2100-01-02T00:00:00Z');
 const NOT_YET = new Date('2100-06-01T00:00:00Z');
 const makeDue = (uniqueKey: string) => ScheduledJob.update({ runAt: DUE, status: 'pending' }, { where: { uniqueKey } });
+/** Two schedulers for just these jobs: one with the real mail catcher, one whose SMTP server is down. */
+async function schedulersFor(keys: string[]) {
+  const dead = createMailer({ SMTP_URL: `smtp://127.0.0.1:${await closedPort()}`, MAIL_FROM: saddlestep.ctx.config.MAIL_FROM }, saddlestep.logger);
+  return { dead, working: createAppScheduler(saddlestep.ctx, { onlyKeys: keys }), broken: createAppScheduler({ ...saddlestep.ctx, mailer: dead }, { onlyKeys: keys }) };
+}
 
 describe('overdue check-in e-mails', () => {
   it('sends one e-mail per job, so a failing fitter e-mail is retried without mailing the rider again', async () => {
@@ -48,9 +53,7 @@ describe('overdue check-in e-mails', () => {
     for (const to of ['rider', 'fitter']) {
       await ScheduledJob.create({ kind: 'checkin-overdue-mail', uniqueKey: mailKey(to), runAt: NOT_YET, payload: { planId: c.planId, stepId: step.id, to }, status: 'pending', lockedBy: null, lockedAt: null, lastError: null, doneAt: null });
     }
-    const dead = createMailer({ SMTP_URL: `smtp://127.0.0.1:${await closedPort()}`, MAIL_FROM: saddlestep.ctx.config.MAIL_FROM }, saddlestep.logger);
-    const working = createAppScheduler(saddlestep.ctx, { onlyKeys: keys });
-    const broken = createAppScheduler({ ...saddlestep.ctx, mailer: dead }, { onlyKeys: keys });
+    const { dead, working, broken } = await schedulersFor(keys);
     try {
       // The mark sends nothing itself and queues no second copy of the e-mail jobs.
       await makeDue(markKey);
@@ -97,9 +100,7 @@ describe('overdue referral e-mails', () => {
     await c.rider.post(`/api/rider/referrals/${id}/consent`, { version: currentConsent('share-with-physio')!.version, agreed: true }).expect(200);
 
     const keys = [escalateKey, mailKey(c.physio.user.id), mailKey(c.fitter.user.id)];
-    const dead = createMailer({ SMTP_URL: `smtp://127.0.0.1:${await closedPort()}`, MAIL_FROM: saddlestep.ctx.config.MAIL_FROM }, saddlestep.logger);
-    const working = createAppScheduler(saddlestep.ctx, { onlyKeys: keys });
-    const broken = createAppScheduler({ ...saddlestep.ctx, mailer: dead }, { onlyKeys: keys });
+    const { dead, working, broken } = await schedulersFor(keys);
     try {
       // The escalation marks the referral and sends nothing itself (the mail server is down).
       await makeDue(escalateKey);

@@ -1,5 +1,6 @@
 import http from 'node:http';
 import net from 'node:net';
+import { randomUUID } from 'node:crypto';
 import type { AppContext } from '@server/context';
 import { createStripe } from '@server/payments/stripe-client';
 
@@ -16,12 +17,38 @@ export async function closedPortUrl(): Promise<string> {
   return `http://127.0.0.1:${port}`;
 }
 
-export async function chargeAnswerLosingProxy(target = process.env.STRIPE_API_BASE!): Promise<{ url: string; close: () => Promise<void> }> {
-  const upstream = new URL(target);
+/**
+ * What a proxy does to one request:
+ * - `refuse`: answers as Stripe does when it rejects a request before running it (400
+ *   invalid_request_error): nothing is made and nothing is kept under the idempotency key;
+ * - `lose-answer`: lets Stripe finish the request, then hangs up before the answer comes back;
+ * - `forget-key`: passes the request on under a fresh idempotency key, as Stripe treats a key it
+ *   no longer remembers (keys expire after 24 hours);
+ * - `null`: passes it on unchanged.
+ */
+export type StripeFault = 'refuse' | 'lose-answer' | 'forget-key' | null;
+
+/** `POST <path>` requests, e.g. isPost(req, '/v1/charges'). */
+export const isPost = (req: http.IncomingMessage, path: string) => req.method === 'POST' && req.url?.split('?')[0] === path;
+
+/**
+ * A real HTTP proxy in front of the Stripe fake; `faultFor` decides, per request, what goes wrong.
+ * Point the app's Stripe client at `url` with `withStripeAt`.
+ */
+export async function faultyStripeProxy(faultFor: (req: http.IncomingMessage) => StripeFault, options: { refusal?: string; target?: string } = {}) {
+  const upstream = new URL(options.target ?? process.env.STRIPE_API_BASE!);
   const server = http.createServer((req, res) => {
-    const forward = http.request({ host: upstream.hostname, port: upstream.port, method: req.method, path: req.url, headers: req.headers }, (answer) => {
-      if (req.method === 'POST' && req.url?.split('?')[0] === '/v1/charges') {
-        // Let Stripe finish the charge, then drop the connection instead of answering.
+    const fault = faultFor(req);
+    if (fault === 'refuse') {
+      req.resume();
+      res.writeHead(400, { 'Content-Type': 'application/json' });
+      res.end(JSON.stringify({ error: { type: 'invalid_request_error', message: options.refusal ?? 'Refused by the test proxy.' } }));
+      return;
+    }
+    const headers = { ...req.headers };
+    if (fault === 'forget-key') headers['idempotency-key'] = `${String(headers['idempotency-key'])}-forgotten-${randomUUID()}`;
+    const forward = http.request({ host: upstream.hostname, port: upstream.port, method: req.method, path: req.url, headers }, (answer) => {
+      if (fault === 'lose-answer') {
         answer.resume();
         answer.on('end', () => req.socket.destroy());
         return;
@@ -36,11 +63,17 @@ export async function chargeAnswerLosingProxy(target = process.env.STRIPE_API_BA
   const { port } = server.address() as net.AddressInfo;
   return {
     url: `http://127.0.0.1:${port}`,
-    close: () => new Promise<void>((resolve) => {
-      server.closeAllConnections();
-      server.close(() => resolve());
-    }),
+    close: () =>
+      new Promise<void>((resolve) => {
+        server.closeAllConnections();
+        server.close(() => resolve());
+      }),
   };
+}
+
+/** Passes a charge on but hangs up before its answer comes back (the charge is made, our server never hears of it). */
+export function chargeAnswerLosingProxy(target?: string) {
+  return faultyStripeProxy((req) => (isPost(req, '/v1/charges') ? 'lose-answer' : null), { target });
 }
 
 /**
