@@ -4,6 +4,9 @@ import type { SaddlestepApp } from '@server/app';
 import { startTestApp } from '../support/app';
 import { TEST_PASSWORD } from '../support/factories';
 import { caseOnStepOne } from '../support/care-factories';
+import { buildFitter, isoDateIn, riderReadyToBook } from '../support/booking-factories';
+import { signedInAs } from '../support/factories';
+import { randomUUID } from 'node:crypto';
 import { launchBrowser, openPage, signIn, type BrowserSession } from '../support/browser';
 
 /*
@@ -76,5 +79,22 @@ describe('pages at phone width (390 × 844)', () => {
 
     const tooWide = Object.entries(widths).filter(([, width]) => width > PHONE.width);
     expect(tooWide, JSON.stringify(widths)).toEqual([]);
+  });
+
+  it("shows the clinic's payments as stacked rows, each with its Refund button on screen", async () => {
+    const { fitter } = await buildFitter();
+    const rider = await riderReadyToBook(saddlestep.app);
+    const held = await rider.post('/api/consultations', { fitterId: fitter.id, startsAt: `${isoDateIn(5)}T11:00:00Z` }).expect(201);
+    const paid = await rider.post(`/api/consultations/${held.body.consultation.id as number}/payment`, { token: 'tok_visa', attemptKey: randomUUID() }).expect(200);
+    expect(paid.body.consultation.payment.status).toBe('succeeded');
+    const admin = await signedInAs(saddlestep.app, 'admin');
+    const { payments } = (await admin.get('/api/admin/payments').expect(200)).body as { payments: { id: number; consultationId: number }[] };
+    const payment = payments.find((p) => p.consultationId === held.body.consultation.id)!;
+
+    const page = await phoneTab(admin.user.email, '/admin');
+    const width = await widthOf(page, '/admin?tab=payments', `[data-test="refund-${payment.id}"]`);
+    expect(width).toBeLessThanOrEqual(PHONE.width);
+    const button = (await page.locator(`[data-test="refund-${payment.id}"]`).boundingBox())!;
+    expect(button.x + button.width).toBeLessThanOrEqual(PHONE.width);
   });
 });
