@@ -3,7 +3,8 @@ import type { z } from 'zod';
 import { Op } from 'sequelize';
 import { planInputsQuerySchema, type applyStepSchema, type noteSchema, type revertSchema, type saveMeasurementSchema, type sendPlanSchema } from '@shared/plan';
 import { photoMeasurementInputSchema } from '@shared/fit/photo';
-import { notFound } from '../errors';
+import { mayStartSession, START_EARLY_MINUTES } from '@shared/consultation';
+import { conflict, notFound } from '../errors';
 import { parseId, parseOrThrow } from '../middleware/validate';
 import { Consultation, Plan, PlanStep, User } from '../models';
 import type { AppContext } from '../context';
@@ -34,6 +35,9 @@ export function createPlanController(ctx: AppContext) {
     const consultation = await assignedConsultation(req.user!, idParam(req.params.id, 'That consultation'));
     await ctx.sequelize.transaction(async (transaction) => {
       await consultation.reload({ transaction, lock: transaction.LOCK.UPDATE });
+      if (consultation.status === 'booked' && !mayStartSession(consultation.startsAt, new Date())) {
+        throw conflict(`This session can be started from ${START_EARLY_MINUTES} minutes before its booked time. Until then the rider can still move or cancel it.`);
+      }
       await transitionConsultation(ctx, consultation, 'in_session', { actorId: req.user!.id, note: 'session started', transaction });
     });
     res.json({ consultation: presentConsultation(consultation, {}) });

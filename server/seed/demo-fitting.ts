@@ -37,8 +37,9 @@ const WEEKDAYS_NINE_TO_FIVE = availabilitySchema.parse({
 });
 
 /**
- * Fitter profiles, a side-on demo photo for Ben, and a booked session between Ben and Tomás so
- * the session room has something in it. Idempotent like the rest of the seed.
+ * Fitter profiles, a side-on demo photo for Ben, and a booked session between Ben and Tomás,
+ * starting within a quarter of an hour of the first seed, so the session room has something in it.
+ * Idempotent like the rest of the seed.
  */
 export async function seedDemoFitting(ctx: AppContext): Promise<void> {
   for (const f of DEMO_FITTERS) {
@@ -54,9 +55,10 @@ export async function seedDemoFitting(ctx: AppContext): Promise<void> {
     await createUpload(ctx, ben.id, { buffer: jpeg, size: jpeg.length }, 'side-crank-6', { actorId: null, actorRole: 'seed', ip: null, userAgent: 'demo seed' });
   }
   if ((await Consultation.count({ where: { riderId: ben.id, fitterId: tomas.id } })) === 0) {
-    // Two working days from the seed, 10:00 in Tomás's zone.
-    let day = DateTime.now().setZone(tomas.timeZone).plus({ days: 2 }).set({ hour: 10, minute: 0, second: 0, millisecond: 0 });
-    while (day.weekday > 5) day = day.plus({ days: 1 });
+    // At the next quarter hour after the first seed, so Tomás can start it at once (sessions open
+    // 15 minutes early) and try the room; later it is simply a past session still waiting to start.
+    const now = DateTime.now().setZone(tomas.timeZone);
+    const day = now.startOf('hour').plus({ minutes: Math.ceil((now.minute + 1) / 15) * 15 });
     await Consultation.create({
       riderId: ben.id,
       fitterId: tomas.id,

@@ -1,1 +1,2 @@
 export * from './states';
+export * from './session-start';

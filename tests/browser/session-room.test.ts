@@ -6,6 +6,7 @@ import { DEMO_PHOTO_SVG } from '@server/seed/demo-photo';
 import { startTestApp } from '../support/app';
 import { TEST_PASSWORD } from '../support/factories';
 import { caseWithBike, TEST_SETUP } from '../support/plan-factories';
+import { startingSoon } from '../support/chat-factories';
 import { launchBrowser, openPage, signIn, type BrowserSession } from '../support/browser';
 
 /*
@@ -71,6 +72,12 @@ describe('the session room in the browser', () => {
     await openRoom(page, c);
     await page.locator('[data-test="case-red-flags"]').waitFor();
     await expect(page.locator('[data-test="case-causes"]').innerText()).resolves.toContain('Possible fit causes to check');
+    // Days ahead, the session cannot be started yet; a few minutes before its time it can.
+    expect(await page.locator('[data-test="start-session"]').isDisabled()).toBe(true);
+    await expect(page.locator('[data-test="start-opens"]').innerText()).resolves.toMatch(/15 minutes before the booked time/);
+    await startingSoon(c.consultation);
+    await page.reload();
+    await page.locator('[data-test="start-session"]:not([disabled])').waitFor();
     await page.locator('[data-test="start-session"]').click();
     await expect.poll(() => page.locator('[data-test="room-status"]').getAttribute('data-status')).toBe('in_session');
 
@@ -121,6 +128,7 @@ describe('the session room in the browser', () => {
   it('sends a plan from the plan builder; the rider sees step 1 on My plan and marks it made', async () => {
     const c = await bookedCase();
     // A plan is sent once the session has started (shared/plan/send-rule.ts).
+    await startingSoon(c.consultation);
     await c.fitter.post(`/api/consultations/${c.consultation.id}/start`).expect(200);
     const fitterTab = await signedInTab(c.fitter.user.email, '/fitter');
     const fitter = fitterTab.page;

@@ -26,6 +26,12 @@ export async function bookedPair(app: SaddlestepApp['app'], status: Consultation
   return { rider, fitter, consultation };
 }
 
+/** Move a booking to start in a few minutes, inside the window in which a fitter may start it. */
+export async function startingSoon(consultation: Consultation, minutes = 5): Promise<void> {
+  const startsAt = new Date(Date.now() + minutes * 60_000);
+  await consultation.update({ startsAt, endsAt: new Date(startsAt.getTime() + 3_600_000) });
+}
+
 export async function socketFor(baseUrl: string, client: Parameters<typeof cookieOf>[0]) {
   const { socket, error } = await openSocket(baseUrl, await cookieOf(client));
   if (error) throw error;

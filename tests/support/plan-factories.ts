@@ -1,7 +1,7 @@
 import type { Setup } from '@shared/fit/setup';
 import type { SaddlestepApp } from '@server/app';
 import { calmIntake } from './booking-factories';
-import { bookedPair } from './chat-factories';
+import { bookedPair, startingSoon } from './chat-factories';
 
 /** An invented road setup for tests. */
 export const TEST_SETUP: Setup = {
@@ -26,6 +26,7 @@ export async function caseWithBike(app: SaddlestepApp['app'], options: { baselin
   });
   if (bike.status !== 201) throw new Error(`bike create failed: ${bike.status} ${JSON.stringify(bike.body)}`);
   if (options.started) {
+    await startingSoon(pair.consultation);
     const started = await pair.fitter.post(`/api/consultations/${pair.consultation.id}/start`);
     if (started.status !== 200) throw new Error(`session start failed: ${started.status} ${JSON.stringify(started.body)}`);
   }
