@@ -1,5 +1,5 @@
 import { Op, fn, col } from 'sequelize';
-import { BIKE_LIMITS, type BikeCreateParsed, type BikeUpdateParsed, type SnapshotParsed } from '@shared/rider';
+import { BIKE_LIMITS, keepShownLengths, type BikeCreateParsed, type BikeUpdateParsed, type SnapshotParsed } from '@shared/rider';
 import { conflict, notFound } from '../errors';
 import { Bike, SetupSnapshot } from '../models';
 import type { AppContext } from '../context';
@@ -70,7 +70,9 @@ export async function retireBike(riderId: number, bikeId: number, actor: AuditAc
 export async function addMeasuredSetup(ctx: AppContext, riderId: number, bikeId: number, input: SnapshotParsed, actor: AuditActor): Promise<SetupSnapshot> {
   const bike = await getOwnBike(riderId, bikeId);
   return ctx.sequelize.transaction(async (transaction) => {
-    const snapshot = await recordSnapshot(bike.id, input.setup, 'manual', riderId, { cleatNotes: input.cleatNotes, takenOn: input.takenOn, transaction });
+    // A figure that reads the same as today's in the rider's unit is today's value, not a rounding of it.
+    const setup = keepShownLengths(input.setup, (await currentSnapshot(bike.id, { transaction }))?.setup ?? null, input.unit);
+    const snapshot = await recordSnapshot(bike.id, setup, 'manual', riderId, { cleatNotes: input.cleatNotes, takenOn: input.takenOn, transaction });
     await recordAudit(actor, { action: 'setup.record', subjectType: 'bike', subjectId: bike.id, subjectUserId: riderId, detail: { snapshotId: snapshot.id, source: 'manual' } }, { transaction });
     return snapshot;
   });

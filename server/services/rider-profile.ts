@@ -1,5 +1,6 @@
 import type { LengthUnit } from '@shared/units';
 import type { ProfileParsed } from '@shared/rider';
+import { keepIfSameWhenShown } from '@shared/length-entry';
 import { RiderProfile } from '../models';
 import { recordAudit, type AuditActor } from './audit';
 
@@ -12,10 +13,14 @@ export async function readProfile(riderId: number, actor: AuditActor): Promise<R
 
 /** Replace the whole profile (a form saves every field); lengths arrive in millimetres. */
 export async function saveProfile(riderId: number, input: ProfileParsed, actor: AuditActor): Promise<RiderProfile> {
+  const before = await RiderProfile.findByPk(riderId);
+  // A figure that reads the same as the stored one in the rider's unit is the stored one, not a
+  // rounding of it (1750 mm shows as 68.9 in, and 68.9 in alone would store 1750.1 mm).
+  const keep = (typed: number | null, stored: number | null | undefined) => (typed === null ? null : keepIfSameWhenShown(typed, stored, input.unit));
   const values = {
     unitPreference: input.unit,
-    heightMm: input.height,
-    inseamMm: input.inseam,
+    heightMm: keep(input.height, before?.heightMm),
+    inseamMm: keep(input.inseam, before?.inseamMm),
     birthYear: input.birthYear,
     flexibility: input.flexibility,
     ridingStyle: input.ridingStyle,

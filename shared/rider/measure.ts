@@ -5,7 +5,10 @@
  */
 import { z } from 'zod';
 import { LENGTH_UNITS, formatLength, inchesToMm, type LengthUnit } from '../units';
-import { PARAMETER_INFO, SETUP_PARAMETERS, type SetupParameter } from '../fit/setup';
+import { keepIfSameWhenShown, roundMm } from '../length-entry';
+import { PARAMETER_INFO, SETUP_PARAMETERS, type Setup, type SetupParameter } from '../fit/setup';
+
+export { roundMm };
 
 export const lengthUnitSchema = z.enum(LENGTH_UNITS, { error: 'Choose mm or in as the unit.' });
 
@@ -16,12 +19,6 @@ export interface MeasureInfo {
   max: number;
   /** How to measure it, in words a rider can follow. */
   measure: string;
-}
-
-/** Storage precision: a tenth of a millimetre is far below what a tape measure resolves. */
-export function roundMm(mm: number): number {
-  // toFixed first, so binary artefacts (29.25 in = 742.9499… mm in floating point) round as on paper.
-  return Math.round(Number((mm * 10).toFixed(6))) / 10;
 }
 
 function limit(value: number, info: MeasureInfo, unit: LengthUnit): string {
@@ -53,4 +50,19 @@ export function setupInUnitSchema(unit: LengthUnit) {
       return undefined;
     },
   });
+}
+
+/**
+ * A re-measured setup with every length that looks the same in `unit` as today's value kept at
+ * today's value. Inches show to 0.01 in (≈ 0.25 mm), so a form that sent back the rounded figure
+ * would otherwise store a move of up to 0.13 mm the rider never made, and the planner counts any
+ * move over 0.05 mm as a change to the bike.
+ */
+export function keepShownLengths(measured: Setup, current: Setup | null, unit: LengthUnit): Setup {
+  if (!current) return measured;
+  const out = { ...measured };
+  for (const p of SETUP_PARAMETERS) {
+    if (PARAMETER_INFO[p].unit === 'mm') out[p] = keepIfSameWhenShown(measured[p], current[p], unit);
+  }
+  return out;
 }

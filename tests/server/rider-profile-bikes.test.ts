@@ -35,6 +35,16 @@ describe('GET and PUT /api/rider/profile', () => {
     expect(row?.unitPreference).toBe('in');
   });
 
+  it('keeps the stored millimetres when inches that read the same come back (68.9 in for 1750 mm)', async () => {
+    const rider = await signedInAs(saddlestep.app, 'rider');
+    await rider.put('/api/rider/profile', { unit: 'mm', height: 1750, inseam: 820 }).expect(200);
+    // 68.9 in alone is 1750.1 mm and 32.28 in is 819.9 mm: rounding, not a new measurement.
+    const same = await rider.put('/api/rider/profile', { unit: 'in', height: 68.9, inseam: 32.28 }).expect(200);
+    expect(same.body.profile).toMatchObject({ heightMm: 1750, inseamMm: 820 });
+    const moved = await rider.put('/api/rider/profile', { unit: 'in', height: 68.9, inseam: 32.5 }).expect(200);
+    expect(moved.body.profile).toMatchObject({ heightMm: 1750, inseamMm: 825.5 });
+  });
+
   it('quotes the limits in the unit the rider typed', async () => {
     const rider = await signedInAs(saddlestep.app, 'rider');
     const res = await rider.put('/api/rider/profile', { unit: 'in', inseam: 80 }).expect(400);
@@ -83,6 +93,17 @@ describe('bikes and their setup history', () => {
     const detail = await rider.get(`/api/rider/bikes/${bike.id}`).expect(200);
     expect(detail.body.snapshots.map((s: { source: string; setup: { saddleHeight: number } }) => [s.source, s.setup.saddleHeight])).toEqual([['baseline', 742], ['manual', 745]]);
     expect(detail.body.bike.current.setup.saddleHeight).toBe(745);
+  });
+
+  it('records a re-measure in rounded inches that reads the same as today as today’s exact millimetres', async () => {
+    const rider = await signedInAs(saddlestep.app, 'rider');
+    const setup = roadSetup({ saddleHeight: 720, saddleSetback: 60, reach: 520, drop: 100, spacerStack: 20 });
+    const bike = await rider.post('/api/rider/bikes', bikeBody({ baseline: { unit: 'mm', setup, takenOn: today() } })).expect(201);
+    // What a form rounding to 0.01 in sends back: 28.35 in alone would be 720.1 mm, 2.36 in 59.9 mm.
+    const inches = { ...setup, saddleHeight: 28.35, saddleSetback: 2.36, reach: 20.47, drop: 3.94, stemLength: 4.33, spacerStack: 0.79, crankLength: 6.79, stack: 0.83 };
+    const res = await rider.post(`/api/rider/bikes/${bike.body.bike.id}/snapshots`, { unit: 'in', setup: inches, takenOn: today() }).expect(201);
+    // Only the stem, which the rider really changed (100 → 110 mm), moves.
+    expect(res.body.snapshot.setup).toEqual({ ...setup, stemLength: 110 });
   });
 
   it('refuses to edit or delete a snapshot through the model (append-only)', async () => {
