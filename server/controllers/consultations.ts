@@ -67,7 +67,7 @@ export function createConsultationController(ctx: AppContext) {
     const cancelledBy = req.user!.role === 'rider' ? 'rider' : 'fitter';
     const { cancellation } = await getClinicSettings();
     res.json({
-      terms: payment ? await cancellationTerms(consultation, payment.amountMinor - payment.refundedMinor, cancelledBy) : null,
+      terms: payment ? await cancellationTerms(consultation, payment, cancelledBy) : null,
       policy: { ...cancellation, noShowRefundShare: NO_SHOW_REFUND_SHARE, summary: describeRefundPolicy(cancellation) },
     });
   };

@@ -1,6 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import { Op, Transaction } from 'sequelize';
-import { decideRefund, slotRefusal, type SlotRefusal } from '@shared/booking';
+import { capToRefundable, decideRefund, slotRefusal, type SlotRefusal } from '@shared/booking';
 import { conflict, notFound, badRequest } from '../errors';
 import { Consultation, FitterProfile, Payment, User } from '../models';
 import type { AppContext } from '../context';
@@ -103,9 +103,15 @@ export async function findOwnConsultation(user: Express.User, id: number): Promi
 }
 
 /** Refund preview for the cancel dialog, from the same rule the cancellation applies. */
-export async function cancellationTerms(consultation: Consultation, paidMinor: number, cancelledBy: 'rider' | 'fitter' | 'admin', now = new Date()) {
+export async function cancellationTerms(
+  consultation: Consultation,
+  payment: Pick<Payment, 'amountMinor' | 'refundedMinor' | 'currency'>,
+  cancelledBy: 'rider' | 'fitter' | 'admin',
+  options: { now?: Date; leftMinor?: number } = {},
+) {
   const settings = await getClinicSettings();
-  return decideRefund({ paidMinor, startsAt: consultation.startsAt, now, cancelledBy, policy: settings.cancellation });
+  const decision = decideRefund({ paidMinor: payment.amountMinor, startsAt: consultation.startsAt, now: options.now ?? new Date(), cancelledBy, policy: settings.cancellation });
+  return capToRefundable(decision, options.leftMinor ?? payment.amountMinor - payment.refundedMinor, payment.currency);
 }
 
 /**

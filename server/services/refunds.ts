@@ -32,7 +32,7 @@ export async function cancelConsultation(ctx: AppContext, user: Express.User, co
     if (!locked || !['requested', 'awaiting_payment', 'booked'].includes(locked.status)) throw conflict('Only a booked or held session can be cancelled.');
     const wasBooked = locked.status === 'booked';
     const payment = await Payment.findOne({ where: { consultationId: locked.id, status: { [Op.in]: PAID } }, transaction, lock: transaction.LOCK.UPDATE });
-    const terms: RefundDecision | null = payment ? await cancellationTerms(locked, payment.amountMinor, cancelledBy) : null;
+    const terms: RefundDecision | null = payment ? await cancellationTerms(locked, payment, cancelledBy, { leftMinor: await refundableLeft(payment, transaction) }) : null;
     await transitionConsultation(ctx, locked, 'cancelled', {
       actorId: user.id,
       note: reason,

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { formatMoney } from './money';
 
 /**
  * The clinic's cancellation rules. The defaults are invented for the demo studio (common practice
@@ -57,6 +58,17 @@ export function decideRefund(input: { paidMinor: number; startsAt: Date; now: Da
     ? `Cancelled more than ${policy.windowHours} h before the start: ${percent} % is refunded.`
     : `Cancelled less than ${policy.windowHours} h before the start: ${percent} % is refunded.`;
   return { amountMinor, share, reason, mayReschedule };
+}
+
+/**
+ * A refund decision capped at what is left of the payment: the policy's share is of the fee paid,
+ * but money refunded earlier (the studio's goodwill, say) cannot be refunded again. The reason
+ * says so, so the amount the rider is shown is the amount that is sent.
+ */
+export function capToRefundable(decision: RefundDecision, leftMinor: number, currency: string): RefundDecision {
+  if (decision.amountMinor <= leftMinor) return decision;
+  const amountMinor = Math.max(0, leftMinor);
+  return { ...decision, amountMinor, reason: `${decision.reason} Part of the fee was refunded earlier, so ${formatMoney(amountMinor, currency, 'en-GB')} is what is left to refund.` };
 }
 
 const percentOf = (share: number) => `${Math.round(share * 100)} %`;

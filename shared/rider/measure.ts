@@ -19,6 +19,8 @@ export interface MeasureInfo {
   max: number;
   /** How to measure it, in words a rider can follow. */
   measure: string;
+  /** The same guide for a rider viewing inches, when `measure` quotes a metric figure. */
+  measureInches?: string;
 }
 
 function limit(value: number, info: MeasureInfo, unit: LengthUnit): string {

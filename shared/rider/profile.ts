@@ -1,8 +1,18 @@
 /** The rider's profile: body measurements, flexibility, riding and injury history. */
 import { z } from 'zod';
-import { LENGTH_UNITS } from '../units';
+import { LENGTH_UNITS, type LengthUnit } from '../units';
 import { lengthUnitSchema, measureSchema, type MeasureInfo } from './measure';
 import { plainText, strictShape, unitUnionError } from './text';
+
+/**
+ * How far apart the feet stand for the inseam, in the rider's own unit. The stance needs no
+ * precision, so a round figure in each unit reads better than an exact conversion.
+ */
+export const INSEAM_FEET_APART: Record<LengthUnit, string> = { mm: '15 cm', in: '6 in' };
+
+function inseamMeasure(feetApart: string): string {
+  return `Barefoot, back to a wall, feet about ${feetApart} apart. Pull a hardback book up firmly between your legs, spine up and level, the way a saddle sits. Mark the top of the spine on the wall and measure from the floor to the mark. Measure twice and use the average.`;
+}
 
 /** Body measurements with their limits (typing or unit mistakes, not advice) and how to measure. */
 export const BODY_MEASURES = {
@@ -13,9 +23,15 @@ export const BODY_MEASURES = {
   inseam: {
     label: 'inseam', unit: 'mm', min: 500, max: 1100,
     // Floor to crotch, barefoot: the convention of LeMond & Gordis 1987 (TRADE §1 [V]); book method [CP].
-    measure: 'Barefoot, back to a wall, feet about 15 cm apart. Pull a hardback book up firmly between your legs, spine up and level, the way a saddle sits. Mark the top of the spine on the wall and measure from the floor to the mark. Measure twice and use the average.',
+    measure: inseamMeasure(INSEAM_FEET_APART.mm),
+    measureInches: inseamMeasure(INSEAM_FEET_APART.in),
   },
 } as const satisfies Record<string, MeasureInfo>;
+
+/** The how-to-measure text in the unit the rider is viewing. */
+export function measureTextFor(info: MeasureInfo, unit: LengthUnit): string {
+  return unit === 'in' && info.measureInches ? info.measureInches : info.measure;
+}
 
 export const FLEXIBILITY_LEVELS = ['limited', 'average', 'good'] as const;
 export type Flexibility = (typeof FLEXIBILITY_LEVELS)[number];

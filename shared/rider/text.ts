@@ -39,3 +39,14 @@ export function unitUnionError(what: string) {
 
 /** A positive database id sent in a body. */
 export const idSchema = z.number({ error: 'Expected an id number.' }).int('Expected an id number.').positive('Expected an id number.').max(4_294_967_295, 'Expected an id number.');
+
+/**
+ * Guide texts come both as clauses ("from the centre of the bottom bracket…") and as whole
+ * sentences; shown on their own, each must read as one sentence with exactly one closing stop.
+ */
+export function asSentence(text: string): string {
+  const t = text.trim();
+  if (t === '') return '';
+  const capital = t.charAt(0).toUpperCase() + t.slice(1);
+  return /[.!?]$/.test(capital) ? capital : `${capital}.`;
+}

@@ -86,7 +86,7 @@ describe('mm and inches in the browser', () => {
     await context.close();
   });
 
-  it('saves About me in inches without moving height or inseam, and stores a typed inseam exactly', async () => {
+  it('saves About me in inches without moving height or inseam, shows the guides in inches, and stores a typed inseam exactly', async () => {
     const { context, page } = await openPage(session.browser);
     await riderWithBike(page);
     await page.goto('/rider/about-me');
@@ -95,6 +95,14 @@ describe('mm and inches in the browser', () => {
     await page.locator('[data-test="unit-mm"]').click();
     await page.locator('[data-test="unit-in"]').click();
     await expect(box(page, 'height').inputValue()).resolves.toBe('68.9');
+
+    const guides = page.locator('[data-test="profile-form"] details');
+    await guides.nth(1).locator('summary').click();
+    const inseamGuide = await guides.nth(1).innerText();
+    expect(inseamGuide).toContain('about 6 in apart');
+    expect(inseamGuide).not.toContain('cm');
+    await guides.nth(0).locator('summary').click();
+    expect(await guides.nth(0).locator('p').innerText()).not.toMatch(/\.\.$/);
 
     await page.locator('[data-test="profile-save"]').click();
     await page.getByText('Saved.').waitFor();

@@ -100,6 +100,27 @@ describe('cancellation and refunds', () => {
     expect(payment.status).toBe('partially_refunded');
   });
 
+  it('quotes exactly what a cancellation then refunds after an earlier partial refund by the studio', async () => {
+    const { rider, id } = await paidBooking(6);
+    const admin = await signedInAs(saddlestep.app, 'admin');
+    const payment = (await Payment.findOne({ where: { consultationId: id } }))!;
+    await admin.post(`/api/admin/payments/${payment.id}/refund`, { amountMinor: 2000, reason: 'Goodwill', idempotencyKey: randomUUID() }).expect(200);
+    // Half of the €90 fee (€45) is due; €70 is left, so all of it can go back.
+    const quoted = (await rider.get(`/api/consultations/${id}/cancellation-terms`).expect(200)).body.terms;
+    expect(quoted.amountMinor).toBe(4500);
+    const res = await rider.post(`/api/consultations/${id}/cancel`, {}).expect(200);
+    expect(res.body.refundedMinor).toBe(quoted.amountMinor);
+
+    // A second booking whose earlier refunds leave less than the policy's share: quote and refund are both capped.
+    const second = await paidBooking(6);
+    const secondPayment = (await Payment.findOne({ where: { consultationId: second.id } }))!;
+    await admin.post(`/api/admin/payments/${secondPayment.id}/refund`, { amountMinor: 6000, reason: 'Goodwill', idempotencyKey: randomUUID() }).expect(200);
+    const cappedQuote = (await second.rider.get(`/api/consultations/${second.id}/cancellation-terms`).expect(200)).body.terms;
+    expect(cappedQuote.amountMinor).toBe(3000);
+    expect(cappedQuote.reason).toMatch(/refunded earlier/);
+    expect((await second.rider.post(`/api/consultations/${second.id}/cancel`, {}).expect(200)).body.refundedMinor).toBe(3000);
+  });
+
   it('refunds in full when the fitter cancels, even at short notice', async () => {
     const { fitter, id } = await paidBooking(3);
     const { browserLikeAgent } = await import('../support/app');

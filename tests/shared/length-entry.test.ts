@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { keepIfSameWhenShown, lengthForDisplay, lengthForSending, roundMm, sameWhenShown, typedToMm } from '@shared/length-entry';
-import { BODY_MEASURES, keepShownLengths, measureSchema } from '@shared/rider';
-import type { Setup } from '@shared/fit/setup';
+import { BODY_MEASURES, asSentence, keepShownLengths, measureSchema, measureTextFor } from '@shared/rider';
+import { PARAMETER_INFO, type Setup } from '@shared/fit/setup';
 
 /** Any stored length: a tenth-of-a-millimetre step, as `roundMm` leaves it. */
 const storedMm = fc.integer({ min: -5000, max: 30000 }).map((tenths) => tenths / 10);
@@ -94,5 +94,24 @@ describe('keepShownLengths', () => {
     const measured = { ...current, saddleHeight: 720.1 };
     expect(keepShownLengths(measured, null, 'in')).toEqual(measured);
     expect(keepShownLengths(measured, current, 'mm')).toEqual(measured);
+  });
+});
+
+describe('guide texts', () => {
+  it('reads each guide as one sentence with a single closing stop', () => {
+    expect(asSentence('from the centre of the bottom bracket')).toBe('From the centre of the bottom bracket.');
+    expect(asSentence('Measure twice and use the average.')).toBe('Measure twice and use the average.');
+    expect(asSentence('Is it level?')).toBe('Is it level?');
+    expect(asSentence('  ')).toBe('');
+    for (const info of [...Object.values(BODY_MEASURES), ...Object.values(PARAMETER_INFO)]) {
+      expect(asSentence(info.measure)).not.toMatch(/\.\.$/);
+    }
+  });
+
+  it('quotes the inseam stance in the unit the rider is viewing', () => {
+    expect(measureTextFor(BODY_MEASURES.inseam, 'mm')).toContain('15 cm');
+    expect(measureTextFor(BODY_MEASURES.inseam, 'in')).toContain('6 in');
+    expect(measureTextFor(BODY_MEASURES.inseam, 'in')).not.toContain('cm');
+    expect(measureTextFor(BODY_MEASURES.height, 'in')).toBe(BODY_MEASURES.height.measure);
   });
 });

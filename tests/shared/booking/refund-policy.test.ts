@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { DEFAULT_CANCELLATION_POLICY, decideRefund, formatMoney, fromMinorUnits, minorUnitDigits, toMinorUnits } from '@shared/booking';
+import { capToRefundable, DEFAULT_CANCELLATION_POLICY, decideRefund, formatMoney, fromMinorUnits, minorUnitDigits, toMinorUnits } from '@shared/booking';
 
 const startsAt = new Date('2027-05-10T10:00:00Z');
 const hoursBefore = (h: number) => new Date(startsAt.getTime() - h * 3_600_000);
@@ -43,5 +43,21 @@ describe('money in minor units', () => {
     expect(fromMinorUnits(4550, 'GBP')).toBe(45.5);
     expect(formatMoney(12000, 'JPY', 'en-GB')).toBe('JP¥12,000');
     expect(formatMoney(9000, 'EUR', 'en-GB')).toBe('€90.00');
+  });
+});
+
+describe('capToRefundable', () => {
+  const late = decideRefund({ paidMinor: 9500, startsAt: new Date('2027-03-09T10:00:00Z'), now: new Date('2027-03-08T15:00:00Z'), cancelledBy: 'rider', policy: DEFAULT_CANCELLATION_POLICY });
+
+  it('keeps the policy amount when enough of the payment is left (half of €95 after a €20 refund: €47.50)', () => {
+    expect(late.amountMinor).toBe(4750);
+    expect(capToRefundable(late, 9500 - 2000, 'EUR')).toEqual(late);
+  });
+
+  it('refunds only what is left, and says why, when an earlier refund took more', () => {
+    const capped = capToRefundable(late, 3000, 'EUR');
+    expect(capped.amountMinor).toBe(3000);
+    expect(capped.reason).toMatch(/refunded earlier, so €30\.00 is what is left to refund/);
+    expect(capToRefundable(late, -5, 'EUR').amountMinor).toBe(0);
   });
 });
