@@ -1,5 +1,5 @@
 import { Op } from 'sequelize';
-import { Consultation, Plan, PlanStep, Referral } from '../models';
+import { Consultation, Intake, Plan, PlanStep, Referral } from '../models';
 import { bookingReadiness } from './intake-gate';
 import { nextStepBlocker } from './check-ins';
 import { todayUtc } from './plan-inputs';
@@ -9,7 +9,9 @@ import { todayUtc } from './plan-inputs';
  * plan (a pause, a check-in owed, a change ready to make), then the session, then a plan simply
  * under way, then getting ready to book. The home page shows it first; the kinds match `RiderNextAction.vue`.
  */
-export type NextActionKind = 'seek_care' | 'plan_on_hold' | 'check_in' | 'apply_step' | 'join_room' | 'session_booked' | 'finish_paying' | 'plan_under_way' | 'tell_us_what_hurts' | 'book';
+export type NextActionKind =
+  | 'seek_care' | 'plan_on_hold' | 'check_in' | 'apply_step' | 'join_room' | 'session_booked' | 'finish_paying' | 'plan_under_way'
+  | 'continue_intake' | 'tell_us_what_hurts' | 'book';
 
 export interface NextAction {
   kind: NextActionKind;
@@ -71,5 +73,8 @@ export async function riderNextAction(riderId: number): Promise<NextAction> {
   const fromSession = await sessionAction(riderId);
   if (fromSession) return fromSession;
   if (fromPlan) return fromPlan;
-  return { kind: readiness.code === 'ready' ? 'book' : 'tell_us_what_hurts' };
+  if (readiness.code === 'ready') return { kind: 'book' };
+  // A rider who saved a draft and sent nothing yet picks up where they left off, not from scratch.
+  if (readiness.code === 'no-intake' && (await Intake.count({ where: { riderId, status: 'draft' } })) > 0) return { kind: 'continue_intake' };
+  return { kind: 'tell_us_what_hurts' };
 }

@@ -2,7 +2,7 @@ import { z } from 'zod';
 import { http } from './http';
 
 /** The kinds the server's `riderNextAction` works out, in its order of priority. */
-export const NEXT_ACTION_KINDS = ['seek_care', 'plan_on_hold', 'check_in', 'apply_step', 'join_room', 'session_booked', 'finish_paying', 'plan_under_way', 'tell_us_what_hurts', 'book'] as const;
+export const NEXT_ACTION_KINDS = ['seek_care', 'plan_on_hold', 'check_in', 'apply_step', 'join_room', 'session_booked', 'finish_paying', 'plan_under_way', 'continue_intake', 'tell_us_what_hurts', 'book'] as const;
 export type NextActionKind = (typeof NEXT_ACTION_KINDS)[number];
 
 const riderHomeSchema = z.object({

@@ -141,6 +141,13 @@ describe('Tell us what hurts, in the browser', () => {
     await refused.waitFor();
     await expect(refused.locator('[data-test="upload-status"]').innerText()).resolves.toMatch(/whatever its name or type says/);
     await expect(refused.locator('[data-test="upload-retry"]').count()).resolves.toBe(0);
+    // A PDF renamed .jpg is refused the same way, and its row shows a plain placeholder, never a broken picture.
+    await page.locator('[data-test="upload-input"]').setInputFiles({ name: 'bike.jpg', mimeType: 'image/jpeg', buffer: Buffer.from('%PDF-1.4\n1 0 obj << /Type /Catalog >> endobj\n%%EOF\n') });
+    await expect.poll(() => refused.count()).toBe(2);
+    for (const row of await refused.all()) {
+      await expect(row.locator('[data-test="upload-thumb"]').count()).resolves.toBe(0);
+      await expect(row.locator('[data-test="upload-thumb-placeholder"]').count()).resolves.toBe(1);
+    }
 
     // A real photo with no declared type (as some phones hand them over) goes to the server, which reads its content.
     const jpeg = await sharp({ create: { width: 24, height: 24, channels: 3, background: '#3b8c6e' } }).jpeg().toBuffer();
@@ -160,6 +167,13 @@ describe('Tell us what hurts, in the browser', () => {
     await page.reload();
     await page.locator('[data-test="symptom-hip-left"]').waitFor();
     await expect(page.locator('[data-test="pain-hip-left-3"] input').isChecked()).resolves.toBe(true);
+    // My fit acknowledges the draft and leads back to it, rather than offering to start again.
+    await page.goto('/rider');
+    const next = page.locator('[data-test="next-action"][data-kind="continue_intake"]');
+    await next.waitFor();
+    await expect(next.innerText()).resolves.not.toMatch(/ten minutes|Start: tell us/);
+    await next.locator('[data-test="next-action-go"]').click();
+    await page.locator('[data-test="symptom-hip-left"]').waitFor();
     await context.close();
   });
 });
