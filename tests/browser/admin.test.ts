@@ -195,10 +195,17 @@ describe('the Clinic screen', () => {
     await expect(row.innerText()).resolves.toContain('Partly refunded');
     await expect(row.innerText()).resolves.toContain(riderName);
 
-    // The dialog now offers only what is left; more than that cannot be typed in.
+    // The dialog now offers only what is left; a larger figure is refused, not quietly cut down.
     await page.locator(`[data-test="refund-${paymentId}"]`).click();
     await expect(input(page, 'refund-amount').inputValue()).resolves.toBe((paid - 10).toFixed(2));
+    await expect(page.locator('[data-test="refund-submit"]').innerText()).resolves.toMatch(new RegExp(`Refund .*${(paid - 10).toFixed(2)}`));
+    await input(page, 'refund-amount').fill('500');
+    await input(page, 'refund-reason').fill('A typo');
+    await page.locator('[data-test="refund-submit"]').click();
+    await expect(page.locator('[data-test="error-amountMinor"]').innerText()).resolves.toMatch(/^At most .* is left to refund\.$/);
+    await expect(input(page, 'refund-amount').inputValue()).resolves.toBe('500.00');
     await page.locator('[data-test="refund-dialog"]').getByRole('button', { name: 'Cancel' }).click();
+    await expect(row.innerText()).resolves.toContain('Partly refunded');
 
     await page.locator('[data-test="tab-audit"]').click();
     await page.locator('[data-test="audit-row"]').first().waitFor();
