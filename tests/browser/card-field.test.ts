@@ -113,4 +113,25 @@ describe("Stripe's card field at checkout", () => {
       await context.close();
     }
   }, 60_000);
+
+  it('keeps a paid session the rider cancelled on My fit, under "Cancelled recently", with its refund', async () => {
+    const { id, context, page } = await atCheckout();
+    try {
+      await page.locator('[data-test="card-field"][data-state="ready"]').waitFor();
+      await typeCard(page, '4242424242424242');
+      await page.locator('[data-test="pay"]').click();
+      await page.waitForURL(`**/consultations/${id}`);
+      const csrf = (await (await page.request.get('/api/auth/csrf')).json()) as { csrfToken: string };
+      const cancelled = await page.request.post(`/api/consultations/${id}/cancel`, { data: {}, headers: { 'X-CSRF-Token': csrf.csrfToken } });
+      expect(cancelled.status()).toBe(200);
+      await page.goto('/rider');
+      const recent = page.locator('[data-test="recently-cancelled"]');
+      await recent.locator(`[data-test="consultation-${id}"] a`).click();
+      await page.waitForURL(`**/consultations/${id}`);
+      await expect(page.locator('[data-test="consultation-refunded"]').innerText()).resolves.toMatch(/refunded to the card/);
+      await expect(page.locator('[data-test="consultation-payment"]').innerText()).resolves.toMatch(/^Paid: /);
+    } finally {
+      await context.close();
+    }
+  }, 60_000);
 });

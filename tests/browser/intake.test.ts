@@ -109,6 +109,9 @@ describe('Tell us what hurts, in the browser', () => {
     await home.waitFor();
     await expect(home.getAttribute('data-code')).resolves.toBe('urgent');
     await expect(page.locator('[data-test="home-urgent"]').innerText()).resolves.toMatch(/stop riding and get urgent medical care today/);
+    // and "My sessions" offers no way to book meanwhile.
+    await page.locator('[data-test="booking-paused"]').waitFor();
+    await expect(page.locator('[data-test="book-session"]').count()).resolves.toBe(0);
     await context.close();
   });
 
