@@ -6,7 +6,7 @@ import type { SaddlestepApp } from '@server/app';
 import { Consultation } from '@server/models';
 import { startTestApp } from '../support/app';
 import { TEST_PASSWORD } from '../support/factories';
-import { buildFitter, isoDateIn, riderReadyToBook } from '../support/booking-factories';
+import { buildFitter, isoDateIn, OPEN_WEEK, riderReadyToBook } from '../support/booking-factories';
 import { launchBrowser, signIn, type BrowserSession } from '../support/browser';
 import { routeFakeStripeJs } from '../support/fake-stripe-js';
 
@@ -34,10 +34,10 @@ afterAll(async () => {
 });
 
 /** A rider signed in on the checkout page of a fresh hold, with Stripe.js served or not. */
-async function atCheckout(options: { unreachable?: boolean } = {}) {
-  const { fitter } = await buildFitter();
+async function atCheckout(options: { unreachable?: boolean; startsAt?: string } = {}) {
+  const { fitter } = await buildFitter({ availability: { ...OPEN_WEEK, windows: OPEN_WEEK.windows.map((w) => ({ ...w, start: '00:00', end: '24:00' })) } });
   const rider = await riderReadyToBook(saddlestep.app);
-  const held = await rider.post('/api/consultations', { fitterId: fitter.id, startsAt: `${isoDateIn(4)}T10:00:00Z` }).expect(201);
+  const held = await rider.post('/api/consultations', { fitterId: fitter.id, startsAt: options.startsAt ?? `${isoDateIn(4)}T10:00:00Z` }).expect(201);
   const id = held.body.consultation.id as number;
   const context = await session.browser.newContext({ baseURL: baseUrl, viewport: { width: 1280, height: 900 } });
   await routeFakeStripeJs(context, options);
@@ -68,6 +68,9 @@ describe("Stripe's card field at checkout", () => {
 
       const pay = page.locator('[data-test="pay"]');
       expect(await pay.isDisabled()).toBe(true);
+      // Four days ahead, the general rules apply as they stand.
+      await page.locator('[data-test="refund-policy"] li').first().waitFor();
+      expect(await page.locator('[data-test="policy-inside-window"]').count()).toBe(0);
       await typeCard(page, '4000000000000069');
       await expect.poll(() => pay.isDisabled()).toBe(false);
       await pay.click();
@@ -130,6 +133,18 @@ describe("Stripe's card field at checkout", () => {
       await page.waitForURL(`**/consultations/${id}`);
       await expect(page.locator('[data-test="consultation-refunded"]').innerText()).resolves.toMatch(/refunded to the card/);
       await expect(page.locator('[data-test="consultation-payment"]').innerText()).resolves.toMatch(/^Paid: /);
+    } finally {
+      await context.close();
+    }
+  }, 60_000);
+
+  it('says plainly, for a session less than 24 h away, what cancelling would return and that it cannot be moved', async () => {
+    const inSixHours = new Date(Math.ceil((Date.now() + 6 * 3_600_000) / 3_600_000) * 3_600_000).toISOString();
+    const { context, page } = await atCheckout({ startsAt: inSixHours });
+    try {
+      const line = page.locator('[data-test="policy-inside-window"]');
+      await line.waitFor();
+      await expect(line.innerText()).resolves.toBe('This session starts in less than 24 h: if you cancel after paying, €45.00 comes back, and it can no longer be moved.');
     } finally {
       await context.close();
     }
