@@ -81,7 +81,7 @@ describe('pages at phone width (390 × 844)', () => {
     expect(tooWide, JSON.stringify(widths)).toEqual([]);
   });
 
-  it("shows the clinic's payments as stacked rows, each with its Refund button on screen", async () => {
+  it("shows the clinic's payments and people as stacked rows, each with its controls on screen", async () => {
     const { fitter } = await buildFitter();
     const rider = await riderReadyToBook(saddlestep.app);
     const held = await rider.post('/api/consultations', { fitterId: fitter.id, startsAt: `${isoDateIn(5)}T11:00:00Z` }).expect(201);
@@ -96,5 +96,16 @@ describe('pages at phone width (390 × 844)', () => {
     expect(width).toBeLessThanOrEqual(PHONE.width);
     const button = (await page.locator(`[data-test="refund-${payment.id}"]`).boundingBox())!;
     expect(button.x + button.width).toBeLessThanOrEqual(PHONE.width);
+
+    // The people list stacks too: the admin's own role and sign-in switch are on screen.
+    await page.goto('/admin?tab=people');
+    await page.locator('input[data-test="people-q"], [data-test="people-q"] input').first().fill(admin.user.email);
+    await page.locator('[data-test="people-search"]').click();
+    await page.locator(`[data-test="user-row-${admin.user.id}"]`).waitFor();
+    expect(await page.evaluate(() => document.scrollingElement!.scrollWidth)).toBeLessThanOrEqual(PHONE.width);
+    for (const control of [`user-role-${admin.user.id}`, `user-status-${admin.user.id}`]) {
+      const box = (await page.locator(`[data-test="${control}"]`).boundingBox())!;
+      expect(box.x + box.width, control).toBeLessThanOrEqual(PHONE.width);
+    }
   });
 });
