@@ -1,15 +1,14 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import type { BrowserContext, Page } from 'playwright-core';
 import { buildPlan } from '@shared/fit/planner';
 import { RED_FLAG_QUESTIONS } from '@shared/fit/triage';
 import { currentConsent } from '@shared/rider';
-import type { SaddlestepApp } from '@server/app';
 import { PlanStep, Referral } from '@server/models';
-import { startTestApp } from '../support/app';
 import { TEST_PASSWORD } from '../support/factories';
 import { caseOnStepOne, checkInBody, today } from '../support/care-factories';
 import { TEST_SETUP } from '../support/plan-factories';
-import { launchBrowser, openPage, signIn, type BrowserSession } from '../support/browser';
+import { openPage, signIn } from '../support/browser';
+import { appAndBrowser } from '../support/browser-suite';
 
 /*
  * The care loop in the browser: a rider's check-in and its advice, the fitter's alert on Today,
@@ -21,23 +20,14 @@ import { launchBrowser, openPage, signIn, type BrowserSession } from '../support
 const PHONE = { width: 390, height: 844 };
 const URGENT_IDS = RED_FLAG_QUESTIONS.filter((q) => q.level === 'urgent').map((q) => q.id);
 
-let saddlestep: SaddlestepApp;
-let session: BrowserSession;
-beforeAll(async () => {
-  saddlestep = await startTestApp();
-  session = await launchBrowser();
-});
-afterAll(async () => {
-  await session?.close();
-  await saddlestep?.close();
-});
+const suite = appAndBrowser();
 
 type Case = Awaited<ReturnType<typeof caseOnStepOne>>;
 
 const field = (page: Page, test: string) => page.locator(`[data-test="${test}"] input, [data-test="${test}"] textarea, input[data-test="${test}"], textarea[data-test="${test}"]`).first();
 
 async function signedInTab(email: string, home: string, viewport?: { width: number; height: number }): Promise<{ context: BrowserContext; page: Page }> {
-  const { context, page } = await openPage(session.browser, viewport ? { viewport } : {});
+  const { context, page } = await openPage(suite.session.browser, viewport ? { viewport } : {});
   await signIn(page, email, TEST_PASSWORD);
   await page.waitForURL(`**${home}`);
   return { context, page };
@@ -54,7 +44,7 @@ async function sharedReferral(c: Case): Promise<number> {
 
 describe('check-ins, referrals and physio limits in the browser', () => {
   it('shows a rider the advice after a worse check-in, and the fitter sees them on Today', async () => {
-    const c = await caseOnStepOne(saddlestep.app);
+    const c = await caseOnStepOne(suite.app.app);
     // The check-in date has passed without one (what the scheduler's overdue job records).
     await PlanStep.update({ checkInDue: today(), overdueAt: new Date() }, { where: { planId: c.planId, stepIndex: 1 } });
     const { context, page } = await signedInTab(c.rider.user.email, '/rider', PHONE);
@@ -112,7 +102,7 @@ describe('check-ins, referrals and physio limits in the browser', () => {
   });
 
   it('asks the rider before anything is shared, and a withdrawal closes the case to the physio at once', async () => {
-    const c = await caseOnStepOne(saddlestep.app);
+    const c = await caseOnStepOne(suite.app.app);
     const created = await c.fitter.post(`/api/consultations/${c.consultation.id}/referrals`, { urgency: 'routine', reason: 'Pain has not settled after the change.', findings: '', attachmentIds: [], physioId: c.physio.user.id });
     expect(created.status).toBe(201);
     const id = created.body.referral.id as number;
@@ -142,7 +132,7 @@ describe('check-ins, referrals and physio limits in the browser', () => {
   });
 
   it('lets a physio accept a referral, open the shared case and answer with limits', async () => {
-    const c = await caseOnStepOne(saddlestep.app);
+    const c = await caseOnStepOne(suite.app.app);
     const id = await sharedReferral(c);
     const { context, page } = await signedInTab(c.physio.user.email, '/physio');
     const item = page.locator(`[data-test="referral-${id}"]`);
@@ -180,7 +170,7 @@ describe('check-ins, referrals and physio limits in the browser', () => {
   });
 
   it("shows the physio's limits in the fitter's plan builder, previews within them and refuses a plan over them", async () => {
-    const c = await caseOnStepOne(saddlestep.app);
+    const c = await caseOnStepOne(suite.app.app);
     const id = await sharedReferral(c);
     await c.physio.post(`/api/physio/referrals/${id}/accept`).expect(200);
     await c.physio
@@ -216,7 +206,7 @@ describe('check-ins, referrals and physio limits in the browser', () => {
   });
 
   it("alerts the fitter's open Today page to an urgent check-in, and the physio and rider read what was reported and answered", async () => {
-    const c = await caseOnStepOne(saddlestep.app);
+    const c = await caseOnStepOne(suite.app.app);
     const fitter = await signedInTab(c.fitter.user.email, '/fitter');
     await fitter.page.locator('[data-test="home-fitter"]').waitFor();
     await expect(fitter.page.locator(`[data-test="follow-up-worse-${c.planId}"]`).count()).resolves.toBe(0);

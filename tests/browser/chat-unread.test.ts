@@ -1,11 +1,10 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { randomUUID } from 'node:crypto';
-import type { SaddlestepApp } from '@server/app';
-import { startTestApp } from '../support/app';
 import { TEST_PASSWORD } from '../support/factories';
 import { bookedPair } from '../support/chat-factories';
 import { ask, openSocket } from '../support/sockets';
-import { launchBrowser, openPage, signIn, testBaseUrl, type BrowserSession } from '../support/browser';
+import { openPage, signIn, testBaseUrl } from '../support/browser';
+import { appAndBrowser } from '../support/browser-suite';
 
 /*
  * The unread badge: a rider signed in on My fit (not in the room) sees a count when the fitter
@@ -13,16 +12,7 @@ import { launchBrowser, openPage, signIn, testBaseUrl, type BrowserSession } fro
  * writes through the launcher's server (the one the browser talks to), signed in over HTTP.
  */
 
-let saddlestep: SaddlestepApp;
-let session: BrowserSession;
-beforeAll(async () => {
-  saddlestep = await startTestApp();
-  session = await launchBrowser();
-});
-afterAll(async () => {
-  await session?.close();
-  await saddlestep?.close();
-});
+const suite = appAndBrowser();
 
 const cookiesOf = (res: Response) => res.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
 
@@ -41,8 +31,8 @@ async function signInOverHttp(email: string): Promise<string> {
 
 describe('unread badge', () => {
   it('counts messages for a rider on another page, links to the thread and clears once read', async () => {
-    const { rider, fitter, consultation } = await bookedPair(saddlestep.app);
-    const { context, page } = await openPage(session.browser);
+    const { rider, fitter, consultation } = await bookedPair(suite.app.app);
+    const { context, page } = await openPage(suite.session.browser);
     try {
       await signIn(page, rider.user.email, TEST_PASSWORD);
       await page.waitForURL('**/rider');

@@ -1,37 +1,27 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { randomUUID } from 'node:crypto';
-import type { SaddlestepApp } from '@server/app';
 import { Consultation } from '@server/models';
-import { startTestApp } from '../support/app';
 import { TEST_PASSWORD } from '../support/factories';
 import { buildFitter, isoDateIn, riderReadyToBook } from '../support/booking-factories';
-import { launchBrowser, openPage, signIn, type BrowserSession } from '../support/browser';
+import { openPage, signIn } from '../support/browser';
+import { appAndBrowser } from '../support/browser-suite';
 
 /*
  * Moving a paid booking asks once more before it moves: a mis-tap on a time must not move the
  * session and send new invites. Data comes from the factories; the browser uses the launcher's server.
  */
-let saddlestep: SaddlestepApp;
-let session: BrowserSession;
-beforeAll(async () => {
-  saddlestep = await startTestApp();
-  session = await launchBrowser();
-});
-afterAll(async () => {
-  await session?.close();
-  await saddlestep?.close();
-});
+const suite = appAndBrowser();
 
 describe('moving a booked session', () => {
   it('asks before moving; "Choose another time" leaves it where it was, "Move it" moves it', async () => {
     const { fitter } = await buildFitter();
-    const rider = await riderReadyToBook(saddlestep.app);
+    const rider = await riderReadyToBook(suite.app.app);
     const startsAt = `${isoDateIn(6)}T10:00:00.000Z`;
     const held = await rider.post('/api/consultations', { fitterId: fitter.id, startsAt }).expect(201);
     const id = held.body.consultation.id as number;
     await rider.post(`/api/consultations/${id}/payment`, { token: 'tok_visa', attemptKey: randomUUID() }).expect(200);
 
-    const { context, page } = await openPage(session.browser);
+    const { context, page } = await openPage(suite.session.browser);
     try {
       await signIn(page, rider.user.email, TEST_PASSWORD);
       await page.waitForURL('**/rider');

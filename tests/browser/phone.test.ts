@@ -1,13 +1,12 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import type { SaddlestepApp } from '@server/app';
-import { startTestApp } from '../support/app';
 import { TEST_PASSWORD } from '../support/factories';
 import { caseOnStepOne } from '../support/care-factories';
 import { buildFitter, isoDateIn, riderReadyToBook } from '../support/booking-factories';
 import { signedInAs } from '../support/factories';
 import { randomUUID } from 'node:crypto';
-import { launchBrowser, openPage, signIn, type BrowserSession } from '../support/browser';
+import { openPage, signIn } from '../support/browser';
+import { appAndBrowser } from '../support/browser-suite';
 
 /*
  * Phone layout: at 390 × 844 (a common phone) no page may be wider than the screen, so nothing
@@ -17,19 +16,10 @@ import { launchBrowser, openPage, signIn, type BrowserSession } from '../support
 
 const PHONE = { width: 390, height: 844 };
 
-let saddlestep: SaddlestepApp;
-let session: BrowserSession;
-beforeAll(async () => {
-  saddlestep = await startTestApp();
-  session = await launchBrowser();
-});
-afterAll(async () => {
-  await session?.close();
-  await saddlestep?.close();
-});
+const suite = appAndBrowser();
 
 async function phoneTab(email: string, home: string): Promise<Page> {
-  const { page } = await openPage(session.browser, { viewport: PHONE });
+  const { page } = await openPage(suite.session.browser, { viewport: PHONE });
   await signIn(page, email, TEST_PASSWORD);
   await page.waitForURL(`**${home}`);
   return page;
@@ -46,7 +36,7 @@ async function widthOf(page: Page, path: string, ready: string): Promise<number>
 
 describe('pages at phone width (390 × 844)', () => {
   it('are no wider than the screen for the rider, the fitter and the physio', async () => {
-    const c = await caseOnStepOne(saddlestep.app);
+    const c = await caseOnStepOne(suite.app.app);
     await c.rider.post(`/api/plans/${c.planId}/steps/1/check-ins`, { rides: 3, minutesRidden: 95, comfort: 5, pains: [{ region: 'knee-front-left', pain: 5 }], numbness: false, note: 'A long note from the rider about how the knee felt on the climbs and on the flat, after the change.', redFlagAnswers: {} }).expect(201);
     const referral = await c.fitter.post(`/api/consultations/${c.consultation.id}/referrals`, { urgency: 'routine', reason: 'Pain has not settled after the change.', findings: 'Knee tracks inward at the top of the stroke.', attachmentIds: [], physioId: c.physio.user.id });
     expect(referral.status).toBe(201);
@@ -83,11 +73,11 @@ describe('pages at phone width (390 × 844)', () => {
 
   it("shows the clinic's payments and people as stacked rows, each with its controls on screen", async () => {
     const { fitter } = await buildFitter();
-    const rider = await riderReadyToBook(saddlestep.app);
+    const rider = await riderReadyToBook(suite.app.app);
     const held = await rider.post('/api/consultations', { fitterId: fitter.id, startsAt: `${isoDateIn(5)}T11:00:00Z` }).expect(201);
     const paid = await rider.post(`/api/consultations/${held.body.consultation.id as number}/payment`, { token: 'tok_visa', attemptKey: randomUUID() }).expect(200);
     expect(paid.body.consultation.payment.status).toBe('succeeded');
-    const admin = await signedInAs(saddlestep.app, 'admin');
+    const admin = await signedInAs(suite.app.app, 'admin');
     const { payments } = (await admin.get('/api/admin/payments').expect(200)).body as { payments: { id: number; consultationId: number }[] };
     const payment = payments.find((p) => p.consultationId === held.body.consultation.id)!;
 

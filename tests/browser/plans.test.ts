@@ -1,11 +1,10 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import type { BrowserContext, Page } from 'playwright-core';
 import { buildPlan, type PlanInput } from '@shared/fit/planner';
-import type { SaddlestepApp } from '@server/app';
-import { startTestApp } from '../support/app';
 import { TEST_PASSWORD } from '../support/factories';
 import { caseWithBike, TEST_SETUP } from '../support/plan-factories';
-import { launchBrowser, openPage, signIn, type BrowserSession } from '../support/browser';
+import { openPage, signIn } from '../support/browser';
+import { appAndBrowser } from '../support/browser-suite';
 
 /*
  * Plans in the browser after they are sent: the fitter follows them on the Plan builder tab, the
@@ -16,21 +15,12 @@ import { launchBrowser, openPage, signIn, type BrowserSession } from '../support
 const PHONE = { width: 390, height: 844 };
 const WIDE = { width: 1440, height: 960 };
 
-let saddlestep: SaddlestepApp;
-let session: BrowserSession;
-beforeAll(async () => {
-  saddlestep = await startTestApp();
-  session = await launchBrowser();
-});
-afterAll(async () => {
-  await session?.close();
-  await saddlestep?.close();
-});
+const suite = appAndBrowser();
 
 type Case = Awaited<ReturnType<typeof caseWithBike>>;
 
 async function signedInTab(email: string, home: string, viewport = WIDE): Promise<{ context: BrowserContext; page: Page }> {
-  const { context, page } = await openPage(session.browser, { viewport });
+  const { context, page } = await openPage(suite.session.browser, { viewport });
   await signIn(page, email, TEST_PASSWORD);
   await page.waitForURL(`**${home}`);
   return { context, page };
@@ -50,7 +40,7 @@ const today = () => new Date().toISOString().slice(0, 10);
 
 describe('plans in the browser', () => {
   it('keeps Send disabled with the reason until the session has started', async () => {
-    const c = await caseWithBike(saddlestep.app);
+    const c = await caseWithBike(suite.app.app);
     const { context, page } = await signedInTab(c.fitter.user.email, '/fitter');
     await page.goto(`/consultations/${c.consultation.id}/room?tab=plan`);
     const saddle = page.locator('[data-test="plan-target-saddleHeight"] input');
@@ -64,7 +54,7 @@ describe('plans in the browser', () => {
   });
 
   it('shows the fitter the plans already sent, with each step’s state, after a reload', async () => {
-    const c = await caseWithBike(saddlestep.app, { started: true });
+    const c = await caseWithBike(suite.app.app, { started: true });
     const planId = await sendPlan(c, { ...TEST_SETUP, saddleHeight: TEST_SETUP.saddleHeight + 6 });
     await c.rider.post(`/api/plans/${planId}/steps/1/apply`, { appliedOn: today() }).expect(200);
 
@@ -83,7 +73,7 @@ describe('plans in the browser', () => {
   });
 
   it('writes the step instructions in inches for a rider who uses inches, and offers the setup just left to go back to', async () => {
-    const c = await caseWithBike(saddlestep.app, { started: true });
+    const c = await caseWithBike(suite.app.app, { started: true });
     await c.rider.put('/api/rider/unit-preference', { unit: 'in' }).expect(200);
     await sendPlan(c, { ...TEST_SETUP, drop: TEST_SETUP.drop - 5 });
     const { context, page } = await signedInTab(c.rider.user.email, '/rider', PHONE);

@@ -1,13 +1,12 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import sharp from 'sharp';
 import type { BrowserContext, Dialog, Page } from 'playwright-core';
-import type { SaddlestepApp } from '@server/app';
 import { DEMO_PHOTO_SVG } from '@server/seed/demo-photo';
-import { startTestApp } from '../support/app';
 import { TEST_PASSWORD } from '../support/factories';
 import { caseWithBike, TEST_SETUP } from '../support/plan-factories';
 import { startingSoon } from '../support/chat-factories';
-import { launchBrowser, openPage, signIn, type BrowserSession } from '../support/browser';
+import { openPage, signIn } from '../support/browser';
+import { appAndBrowser } from '../support/browser-suite';
 
 /*
  * The session room in the browser: the fitter measures a photo, builds and sends a plan, the
@@ -19,20 +18,11 @@ import { launchBrowser, openPage, signIn, type BrowserSession } from '../support
 const PHONE = { width: 390, height: 844 };
 const WIDE = { width: 1440, height: 960 };
 
-let saddlestep: SaddlestepApp;
-let session: BrowserSession;
-beforeAll(async () => {
-  saddlestep = await startTestApp();
-  session = await launchBrowser();
-});
-afterAll(async () => {
-  await session?.close();
-  await saddlestep?.close();
-});
+const suite = appAndBrowser();
 
 /** A booked case: intake, profile with inseam, a bike with its baseline, and the demo side-on photo. */
 async function bookedCase() {
-  const c = await caseWithBike(saddlestep.app);
+  const c = await caseWithBike(suite.app.app);
   await c.rider.put('/api/rider/profile', { unit: 'mm', inseam: 860, height: 1780 }).expect(200);
   const photo = await sharp(Buffer.from(DEMO_PHOTO_SVG)).jpeg({ quality: 85 }).toBuffer();
   const uploaded = await c.rider.agent
@@ -46,7 +36,7 @@ async function bookedCase() {
 type Case = Awaited<ReturnType<typeof bookedCase>>;
 
 async function signedInTab(email: string, home: string, viewport = WIDE): Promise<{ context: BrowserContext; page: Page }> {
-  const { context, page } = await openPage(session.browser, { viewport });
+  const { context, page } = await openPage(suite.session.browser, { viewport });
   await signIn(page, email, TEST_PASSWORD);
   await page.waitForURL(`**${home}`);
   return { context, page };
