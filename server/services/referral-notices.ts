@@ -118,7 +118,9 @@ async function sendEscalation(ctx: AppContext, referral: Referral, kind: Escalat
   const physioId = kind === 'unconsented' ? 0 : (referral.physioId ?? 0);
   const people = await User.findAll({ attributes: ['id'], where: { [Op.or]: [{ id: [physioId, referral.fitterId] }, { role: 'admin', status: 'active' }] } });
   await ctx.sequelize.transaction(async (transaction) => {
-    await referral.update({ escalatedAt: new Date() }, { transaction });
+    // `escalatedAt` is the physio's "Overdue: reminder sent" badge: not for a referral they have
+    // not received yet (it would greet them on arrival after the rider finally agrees).
+    if (kind !== 'unconsented') await referral.update({ escalatedAt: new Date() }, { transaction });
     for (const user of people) {
       await scheduleJob(
         { kind: REFERRAL_ESCALATION_MAIL, uniqueKey: `${REFERRAL_ESCALATION_MAIL}:${kind}:${referral.id}:${user.id}`, runAt: new Date(), payload: { referralId: referral.id, kind, userId: user.id } },
