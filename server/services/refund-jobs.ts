@@ -8,6 +8,12 @@ import { inTransaction } from './db-retry';
 import { sendCancellation, sendRefundNotice } from '../mail/booking-mails';
 
 export const REFUND_JOB = 'refund';
+/**
+ * Every refund is first tried at once by the request that promised it (`tryRefundNow`); its job is
+ * the safety net, due at the scheduler's first back-off step (2 min). Due at once, another
+ * process's tick could run it while that first try is still waiting on Stripe.
+ */
+export const SAFETY_NET_DELAY_MS = 2 * 60_000;
 /** The one scheduled job of a refund row. */
 export const refundJobKey = (refundId: number) => `refund:${refundId}`;
 
@@ -35,7 +41,7 @@ export async function recordRefundRequest(
     { paymentId: input.payment.id, idempotencyKey: input.idempotencyKey, stripeRefundId: null, amountMinor, reason: input.reason.slice(0, 300), actorId: input.actorId, status: 'pending', notice: input.notice },
     { transaction },
   );
-  await scheduleJob({ kind: REFUND_JOB, uniqueKey: refundJobKey(refund.id), runAt: new Date(), payload: { refundId: refund.id } }, { transaction });
+  await scheduleJob({ kind: REFUND_JOB, uniqueKey: refundJobKey(refund.id), runAt: new Date(Date.now() + SAFETY_NET_DELAY_MS), payload: { refundId: refund.id } }, { transaction });
   return refund;
 }
 

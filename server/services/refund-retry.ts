@@ -7,13 +7,7 @@ import { scheduleJob } from '../scheduler/jobs';
 import { recordAudit, type AuditActor } from './audit';
 import { inTransaction } from './db-retry';
 import { jobStillTrying } from './refund-attention';
-import { REFUND_JOB, refundJobKey, refundableLeft, tryRefundNow } from './refund-jobs';
-
-/**
- * The request itself asks Stripe at once; the re-queued job is the safety net and starts the
- * scheduler's back-off afresh at its first step (2 minutes), so it never races the request's try.
- */
-const SAFETY_NET_DELAY_MS = 2 * 60_000;
+import { REFUND_JOB, refundJobKey, refundableLeft, SAFETY_NET_DELAY_MS, tryRefundNow } from './refund-jobs';
 
 async function requeueJob(refundId: number, job: ScheduledJob | null, transaction: Transaction): Promise<void> {
   const runAt = new Date(Date.now() + SAFETY_NET_DELAY_MS);

@@ -81,9 +81,9 @@ async function cancelledWithRefundGivenUp() {
   return { ...booking, refund };
 }
 
-/** Run a refund's job now, or at a later time (e.g. after a Try again re-queued it two minutes ahead). */
-const runRefundJob = (refundId: number, at = new Date()) => createAppScheduler(saddlestep.ctx, { onlyKeys: [refundJobKey(refundId)] }).tick(at);
 const inMinutes = (minutes: number) => new Date(Date.now() + minutes * 60_000);
+/** Run a refund's job; by default 3 minutes on, as jobs wait 2 minutes after the request's own try (SAFETY_NET_DELAY_MS). */
+const runRefundJob = (refundId: number, at = inMinutes(3)) => createAppScheduler(saddlestep.ctx, { onlyKeys: [refundJobKey(refundId)] }).tick(at);
 
 const retryAudits = (paymentId: number) => AuditEntry.count({ where: { action: 'payment.refund_retry', subjectType: 'payment', subjectId: String(paymentId) } });
 
